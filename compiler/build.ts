@@ -1,0 +1,366 @@
+// build(examples, settings) → model bytes: split → encode → train the draft → prune →
+// quantize → fine-tune the output layer → calibrate → choose the policy → write → verify.
+// Pure: no file I/O; the CLI reads the data and writes the file.
+
+import { loadModel } from "../runtime/load-model.ts";
+import { createFeaturizer, type FeaturizerSettings } from "../runtime/featurizer.ts";
+import type { HeadKind, ModelHeader } from "../runtime/model-header.ts";
+import { NORMALIZATION_VERSION } from "../runtime/normalize.ts";
+import type { Policy } from "../runtime/policy.ts";
+import type { Model } from "../runtime/model.ts";
+import type { BuildSettings } from "./build-settings.ts";
+import { choosePolicy, type PolicyReport } from "./compile/choose-policy.ts";
+import { fitCalibration } from "./compile/calibrate.ts";
+import { huffmanTree, treePaths } from "./compile/huffman.ts";
+import { rowImportance, selectRows, subsetDraft } from "./compile/prune.ts";
+import { dequantizeRows, quantizeRows } from "./compile/quantize.ts";
+import { sectionSizes, writeModel, type ModelContents } from "./compile/write-model.ts";
+import { evaluateModel, scoreTexts, type LabelledText } from "./evaluate.ts";
+import { createDraft, type Draft } from "./train/draft.ts";
+import { buildVocabulary, encodeTexts, inverseDocumentFrequency, mapToRows, type EncodedExamples } from "./train/encode.ts";
+import { createRandom } from "./train/random.ts";
+import { stratifiedSplit } from "./train/split.ts";
+import { trainDraft, type TrainProgress } from "./train/train-draft.ts";
+import { trainParallel } from "./train/train-parallel.ts";
+import { TOOL_VERSION } from "./version.ts";
+
+/** Above this many labels `--head auto` picks the tree head (measured: see README, "Scale"). */
+export const TREE_HEAD_LABEL_THRESHOLD = 64;
+
+export interface BuildInput {
+  examples: readonly LabelledText[];
+  /** Validation examples; when absent, `settings.holdout` of `examples` is held out. */
+  validation?: readonly LabelledText[];
+  settings: BuildSettings;
+  /** ISO time recorded in provenance; fixed for reproducible builds. */
+  buildTime: string;
+  /** SHA-256 (hex) of the training data file, recorded in provenance. */
+  dataSha256?: string;
+  dataName?: string;
+  onProgress?: (stage: string, progress: TrainProgress) => void;
+  onMessage?: (message: string) => void;
+  /** Which data fields held the text and the label (recorded so eval and classify can default to them). */
+  fields?: { text: string[]; label: string };
+}
+
+export interface Quality {
+  accuracy: number;
+  macroF1: number;
+}
+
+export interface BuildReport {
+  bytes: number;
+  head: HeadKind;
+  headReason: string;
+  labels: string[];
+  trainExamples: number;
+  validationExamples: number;
+  trainSeconds: number;
+  tokensPerSecond: number;
+  finalLoss: number;
+  rows: { seen: number; kept: number };
+  draft: Quality & { bytes: number };
+  compiled: Quality;
+  validation: Quality & { microF1: number; logLoss: number; ece: number };
+  calibration: { temperature: number; eceBefore: number; eceAfter: number; nllBefore: number; nllAfter: number } | null;
+  policy: PolicyReport | null;
+  sections: Record<string, number>;
+  warnings: string[];
+}
+
+/**
+ * Trains and compiles a model.
+ * @example
+ * const { bytes, report } = await build({ examples, settings: defaultBuildSettings(), buildTime: new Date().toISOString() });
+ */
+export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; report: BuildReport }> {
+  const { settings } = input;
+  const warnings: string[] = [];
+  const say = (message: string) => input.onMessage?.(message);
+  const labels = collectLabels(input.examples);
+  if (labels.length === 0) throw new Error("no labelled examples to train on");
+  const { head, reason: headReason } = chooseHead(settings.head, input.examples, labels.length);
+  if (head !== "sigmoid" && labels.length < 2) throw new Error(`only one label ("${labels[0]}") in the data: a ${head} head needs at least two (use --head sigmoid for one yes/no label)`);
+  say(`head: ${head} (${headReason})`);
+
+  const labelIndex = new Map(labels.map((label, i) => [label, i]));
+  const { train, validation } = splitExamples(input, labelIndex, warnings);
+  if (validation.length === 0) warnings.push("no validation data (holdout 0 and no --validation): metrics below are not measured on held-out data");
+
+  const featurizerSettings: FeaturizerSettings = {
+    normalization: NORMALIZATION_VERSION,
+    wordSpan: settings.wordSpan,
+    charMin: settings.charSpan[0],
+    charMax: settings.charSpan[1],
+    hashBits: settings.hashBits,
+    hashSeed: settings.hashSeed,
+    maxTokens: settings.maxTokens,
+  };
+  const featurizer = createFeaturizer(featurizerSettings);
+  const encoded = encodeTexts(featurizer, train.map((e) => e.text), train.map((e) => e.labels.map((l) => labelIndex.get(l) as number)));
+  const vocabulary = buildVocabulary(encoded, settings.hashBits, settings.minDocs);
+  const trainingRows = mapToRows(encoded, vocabulary.slots, settings.hashBits);
+  const rowWeights = settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null;
+  const labelCounts = countLabels(trainingRows, labels.length);
+  const tree = head === "tree" ? huffmanTree(labelCounts) : null;
+  const paths = tree ? treePaths(tree, labels.length) : null;
+  const random = createRandom(settings.seed);
+  const draft = createDraft({
+    head,
+    labels,
+    dims: settings.dims,
+    slots: vocabulary.slots,
+    documentFrequency: vocabulary.documentFrequency,
+    rowWeights,
+    tree,
+    random,
+    shared: settings.threads > 1,
+  });
+  say(`training: ${train.length} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
+  const trainSettings = { epochs: settings.epochs, learningRate: settings.learningRate, seed: settings.seed };
+  const trained =
+    settings.threads > 1
+      ? await trainParallel(draft, trainingRows, trainSettings, settings.threads, paths, (p) => input.onProgress?.("train", p))
+      : trainDraft(draft, trainingRows, trainSettings, { paths, random, onProgress: (p) => input.onProgress?.("train", p) });
+
+  const header = baseHeader(input, head, labels, featurizerSettings, train.length);
+  const validationTexts = validation.map((e) => e.text);
+
+  // The draft as shipped would be: float32, every row.
+  const draftBytes = writeModel(contentsOf(draft, header, "float32", null));
+  const draftModel = loadModel(draftBytes);
+  const draftQuality = validation.length > 0 ? quality(evaluateModel(draftModel, validation)) : { accuracy: NaN, macroF1: NaN };
+
+  // Compile: prune to the budget, quantize, retrain the output layer on what survives.
+  const importance = rowImportance(draft);
+  const compile = (keep: number) => compileDraft(draft, importance, keep, encoded, settings, header, paths);
+  let keep = settings.keepFeatures > 0 ? Math.min(settings.keepFeatures, draft.slots.length) : draft.slots.length;
+  let compiled = compile(keep);
+  if (settings.maxBytes > 0) {
+    const fit = fitRowsToBudget(draft, importance, settings, header, keep);
+    if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
+    keep = fit;
+    compiled = compile(keep);
+  }
+
+  // Calibrate and choose the policy on the validation split, with the compiled model.
+  let calibration: BuildReport["calibration"] = null;
+  let policy: Policy | null = null;
+  let policyReport: PolicyReport | null = null;
+  let thresholds: number[] | null = null;
+  if (validation.length > 0) {
+    const uncalibrated = loadModel(writeModel(compiled.contents));
+    const scored = scoreTexts(uncalibrated, validationTexts);
+    if (settings.calibrate && head !== "tree") {
+      calibration = fitCalibration(head, scored, validation, labelIndex);
+      compiled.contents.header.calibration = { temperature: calibration.temperature };
+    }
+    const calibratedScores = settings.calibrate && head !== "tree" ? scoreTexts(loadModel(writeModel(compiled.contents)), validationTexts) : scored;
+    if (head === "sigmoid") thresholds = labels.map(() => 0.5);
+    const chosen = choosePolicy(calibratedScores, validation, labels, settings.targetPrecision, settings.targetRecall, warnings);
+    policy = chosen.policy;
+    policyReport = chosen.report;
+    compiled.contents.header.policy = policy;
+    compiled.contents.header.thresholds = thresholds;
+  }
+
+  // Measure what ships, record it in the header, write the final bytes.
+  const shipped = loadModel(writeModel(compiled.contents));
+  const evaluation = validation.length > 0 ? evaluateModel(shipped, validation) : null;
+  const compiledQuality = evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN };
+  compiled.contents.header.metrics = {
+    validationExamples: validation.length,
+    draft: roundQuality(draftQuality),
+    compiled: roundQuality(compiledQuality),
+    ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
+    labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
+  };
+  let bytes = writeModel(compiled.contents);
+  if (settings.maxBytes > 0 && bytes.length > settings.maxBytes) {
+    // The metrics made the header a little longer: drop rows until it fits, keeping the measured metrics honest.
+    while (bytes.length > settings.maxBytes && keep > 0) {
+      keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings))));
+      const smaller = compile(keep);
+      smaller.contents.header = { ...compiled.contents.header };
+      compiled = smaller;
+      const reloaded = loadModel(writeModel(compiled.contents));
+      const again = validation.length > 0 ? evaluateModel(reloaded, validation) : null;
+      if (again) (compiled.contents.header.metrics as Record<string, unknown>).compiled = roundQuality(quality(again));
+      bytes = writeModel(compiled.contents);
+    }
+  }
+  verifyRoundTrip(bytes, shipped, validationTexts.slice(0, 50), head);
+  const report: BuildReport = {
+    bytes: bytes.length,
+    head,
+    headReason,
+    labels,
+    trainExamples: train.length,
+    validationExamples: validation.length,
+    trainSeconds: trained.seconds,
+    tokensPerSecond: trained.tokensPerSecond,
+    finalLoss: trained.finalLoss,
+    rows: { seen: draft.slots.length, kept: compiled.contents.slots.length },
+    draft: { ...draftQuality, bytes: draftBytes.length },
+    compiled: compiledQuality,
+    validation: evaluation
+      ? { accuracy: evaluation.accuracy, macroF1: evaluation.macroF1, microF1: evaluation.microF1, logLoss: evaluation.logLoss, ece: evaluation.ece }
+      : { accuracy: NaN, macroF1: NaN, microF1: NaN, logLoss: NaN, ece: NaN },
+    calibration,
+    policy: policyReport,
+    sections: sectionSizes(bytes),
+    warnings,
+  };
+  return { bytes, report };
+}
+
+function collectLabels(examples: readonly LabelledText[]): string[] {
+  const labels = new Set<string>();
+  for (const example of examples) for (const label of example.labels) labels.add(label);
+  return [...labels].sort();
+}
+
+function chooseHead(choice: BuildSettings["head"], examples: readonly LabelledText[], labelCount: number): { head: HeadKind; reason: string } {
+  if (choice !== "auto") return { head: choice, reason: "chosen by --head" };
+  if (examples.some((e) => e.labels.length > 1)) return { head: "sigmoid", reason: "some examples carry several labels" };
+  if (labelCount > TREE_HEAD_LABEL_THRESHOLD) return { head: "tree", reason: `${labelCount} labels, more than ${TREE_HEAD_LABEL_THRESHOLD}` };
+  return { head: "softmax", reason: `one label per example, ${labelCount} labels` };
+}
+
+function splitExamples(input: BuildInput, labelIndex: Map<string, number>, warnings: string[]): { train: LabelledText[]; validation: LabelledText[] } {
+  if (input.validation) {
+    const unknown = input.validation.filter((e) => !e.labels.every((l) => labelIndex.has(l)));
+    if (unknown.length > 0) warnings.push(`${unknown.length} validation examples have labels absent from the training data; they are left out of validation`);
+    return { train: [...input.examples], validation: input.validation.filter((e) => e.labels.every((l) => labelIndex.has(l))) };
+  }
+  if (input.settings.holdout <= 0) return { train: [...input.examples], validation: [] };
+  const firstLabel = input.examples.map((e) => labelIndex.get(e.labels[0]) as number);
+  const split = stratifiedSplit(firstLabel, input.settings.holdout, input.settings.seed);
+  return { train: Array.from(split.train, (i) => input.examples[i]), validation: Array.from(split.validation, (i) => input.examples[i]) };
+}
+
+function countLabels(data: EncodedExamples, labelCount: number): Float64Array {
+  const counts = new Float64Array(labelCount);
+  for (let i = 0; i < data.labelList.length; i++) counts[data.labelList[i]]++;
+  return counts;
+}
+
+type HeaderBase = ModelContents["header"];
+
+function baseHeader(input: BuildInput, head: HeadKind, labels: string[], featurizer: FeaturizerSettings, trainCount: number): HeaderBase {
+  const s = input.settings;
+  return {
+    labels,
+    head,
+    dims: s.dims,
+    outputCount: head === "tree" ? labels.length - 1 : labels.length,
+    featurizer,
+    weighting: s.weighting,
+    precision: s.precision,
+    calibration: { temperature: 1 },
+    thresholds: null,
+    policy: null,
+    metrics: {},
+    provenance: {
+      tool: `sluice ${TOOL_VERSION}`,
+      builtAt: input.buildTime,
+      data: input.dataName ?? null,
+      fields: input.fields ?? null,
+      dataSha256: input.dataSha256 ?? null,
+      examples: input.examples.length,
+      trainExamples: trainCount,
+      settings: { ...s },
+    },
+  };
+}
+
+function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float32", frozenRows: { values: Int8Array; scales: Float32Array } | null): ModelContents {
+  const base = { ...header, precision, metrics: { ...header.metrics }, calibration: { ...header.calibration } };
+  if (precision === "float32") {
+    return {
+      header: base,
+      slots: draft.slots,
+      rows: draft.rows,
+      rowScales: null,
+      rowWeights: draft.rowWeights,
+      outputWeights: Float32Array.from(draft.outputs),
+      outputScales: null,
+      outputBias: Float32Array.from(draft.bias),
+      tree: draft.tree,
+    };
+  }
+  const rows = frozenRows ?? quantizeRows(draft.rows, draft.dims);
+  const outputs = quantizeRows(draft.outputs, draft.dims);
+  return {
+    header: base,
+    slots: draft.slots,
+    rows: rows.values,
+    rowScales: rows.scales,
+    rowWeights: draft.rowWeights,
+    outputWeights: outputs.values,
+    outputScales: outputs.scales,
+    outputBias: Float32Array.from(draft.bias),
+    tree: draft.tree,
+  };
+}
+
+/** Prune to `keep` rows, quantize them, retrain the output layer on exactly those rows. */
+function compileDraft(draft: Draft, importance: Float64Array, keep: number, encoded: EncodedExamples, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null) {
+  const pruned = subsetDraft(draft, selectRows(importance, keep));
+  let frozen: { values: Int8Array; scales: Float32Array } | null = null;
+  if (settings.precision === "int8") {
+    frozen = quantizeRows(pruned.rows, pruned.dims);
+    pruned.rows = dequantizeRows(frozen.values, frozen.scales, pruned.dims);
+  }
+  if (settings.fineTuneEpochs > 0) {
+    const data = mapToRows(encoded, pruned.slots, settings.hashBits);
+    trainDraft(pruned, data, { epochs: settings.fineTuneEpochs, learningRate: settings.learningRate * 0.2, seed: settings.seed + 1 }, { paths, trainRows: false });
+  }
+  return { contents: contentsOf(pruned, header, settings.precision, frozen) };
+}
+
+/** Approximate bytes per kept row (for stepping toward a byte budget). */
+function rowBytes(settings: BuildSettings): number {
+  return (settings.precision === "int8" ? settings.dims + 4 : settings.dims * 4) + (settings.weighting === "tfidf" ? 4 : 0) + 3;
+}
+
+/** The largest row count (≤ upper) whose compiled file fits the byte budget, by bisection on real writes. */
+function fitRowsToBudget(draft: Draft, importance: Float64Array, settings: BuildSettings, header: HeaderBase, upper: number): number | null {
+  // Reserve room for the metrics and policy written into the header later.
+  const budget = settings.maxBytes - 2048 - 64 * draft.labels.length;
+  const sizeWith = (keep: number) => writeModel(contentsOf(subsetDraft(draft, selectRows(importance, keep)), header, settings.precision, null)).length;
+  if (sizeWith(0) > budget) return null;
+  if (sizeWith(upper) <= budget) return upper;
+  let low = 0;
+  let high = upper;
+  while (high - low > Math.max(1, upper >> 10)) {
+    const middle = (low + high) >>> 1;
+    if (sizeWith(middle) <= budget) low = middle;
+    else high = middle;
+  }
+  return low;
+}
+
+/** The written bytes load and score exactly like the model that was measured. */
+function verifyRoundTrip(bytes: Uint8Array, measured: Model, texts: string[], head: HeadKind): void {
+  const reloaded = loadModel(bytes);
+  for (const text of texts) {
+    const a = measured.score(text).scores;
+    const b = reloaded.score(text).scores;
+    for (let k = 0; k < a.length; k++) {
+      if (Math.abs(a[k] - b[k]) > 1e-6) throw new Error(`verification failed: the written ${head} model scores differently from the measured one`);
+    }
+  }
+}
+
+function quality(report: { accuracy: number; macroF1: number }): Quality {
+  return { accuracy: report.accuracy, macroF1: report.macroF1 };
+}
+
+function round(value: number): number {
+  return Math.round(value * 1e6) / 1e6;
+}
+
+function roundQuality(q: Quality): Quality {
+  return { accuracy: round(q.accuracy), macroF1: round(q.macroF1) };
+}

@@ -1,0 +1,70 @@
+// The sluice command line: parse the command, run it, turn errors into one clear line on
+// stderr and a non-zero exit code. All real work lives in the programmatic API.
+
+import { InputError, ModelFormatError } from "../runtime/errors.ts";
+import { SettingError } from "./build-settings.ts";
+import { buildCommand } from "./cli/commands/build-command.ts";
+import { classifyCommand } from "./cli/commands/classify-command.ts";
+import { evalCommand } from "./cli/commands/eval-command.ts";
+import { explainCommand } from "./cli/commands/explain-command.ts";
+import { inspectCommand } from "./cli/commands/inspect-command.ts";
+import { UsageError } from "./cli/parse-args.ts";
+import { DataError } from "./read/index.ts";
+import { TOOL_VERSION } from "./version.ts";
+
+type Command = (argv: string[]) => Promise<number>;
+
+const COMMANDS: Record<string, { run: () => Promise<Command>; summary: string }> = {
+  build: { run: async () => buildCommand, summary: "build <data> --out model.sluice   read → train → prune → quantize → verify → write" },
+  eval: { run: async () => evalCommand, summary: "eval <model> <data>               metrics on labelled data" },
+  classify: { run: async () => classifyCommand, summary: "classify <model> [data | -]       labels and scores for texts" },
+  explain: { run: async () => explainCommand, summary: 'explain <model> "text"            the features that pushed each top label' },
+  inspect: { run: async () => inspectCommand, summary: "inspect <model>                   header, labels, sizes by section, provenance" },
+};
+
+function usage(): string {
+  return [`sluice ${TOOL_VERSION}: text classifiers compiled for the edge`, "", "usage: sluice <command> [options]", "", ...Object.values(COMMANDS).map((c) => `  ${c.summary}`), "", "sluice <command> --help lists a command's options."].join("\n");
+}
+
+/**
+ * Runs the CLI with the given arguments (without `node` and the script); returns the exit code.
+ * @example await main(["inspect", "model.sluice"])
+ */
+export async function main(argv: string[]): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === "--help" || name === "-h" || name === "help") {
+    process.stdout.write(`${usage()}\n`);
+    return name === undefined ? 1 : 0;
+  }
+  if (name === "--version") {
+    process.stdout.write(`${TOOL_VERSION}\n`);
+    return 0;
+  }
+  const command = COMMANDS[name];
+  if (!command) {
+    process.stderr.write(`sluice: unknown command "${name}"\n\n${usage()}\n`);
+    return 2;
+  }
+  try {
+    const run = await command.run();
+    if (rest.includes("--help")) return await run(["--help"]).catch(() => 0);
+    return await run(rest);
+  } catch (error) {
+    return reportError(name, error);
+  }
+}
+
+function reportError(command: string, error: unknown): number {
+  if (error instanceof UsageError) {
+    process.stderr.write(`sluice ${command}: ${error.message}\n`);
+    return 2;
+  }
+  if (error instanceof DataError || error instanceof SettingError || error instanceof ModelFormatError || error instanceof InputError) {
+    process.stderr.write(`sluice ${command}: ${error.message}\n`);
+    return 1;
+  }
+  const message = error instanceof Error ? error.message : String(error);
+  process.stderr.write(`sluice ${command}: ${message}\n`);
+  if (process.env.SLUICE_DEBUG && error instanceof Error) process.stderr.write(`${error.stack}\n`);
+  return 1;
+}

@@ -1,0 +1,132 @@
+// `sluice build <data> --out model.sluice`: read → train → prune → quantize → verify → write.
+
+import { readFileSync } from "node:fs";
+import { basename } from "node:path";
+import { build, type BuildReport } from "../../build.ts";
+import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, type BuildSettings } from "../../build-settings.ts";
+import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
+import { fixed, formatTable } from "../format-table.ts";
+import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
+import { DATA_FLAGS, readData, sha256OfFile } from "../read-data.ts";
+import { writeFileAtomic } from "../write-file-atomic.ts";
+
+const SETTING_FLAGS: Record<string, FlagSpec> = Object.fromEntries(
+  Object.values(BUILD_SETTINGS).map((spec) => [spec.flag, { takesValue: spec.kind !== "boolean", repeatable: spec.kind === "map", description: spec.description }]),
+);
+
+export const BUILD_FLAGS: Record<string, FlagSpec> = {
+  ...DATA_FLAGS,
+  ...SETTING_FLAGS,
+  "--out": { takesValue: true, description: "output model file (default model.sluice)" },
+  "--validation": { takesValue: true, description: "validation data file (instead of --holdout)" },
+  "--config": { takesValue: true, description: "settings file (sluice.config.json); flags override it" },
+  "--json": { takesValue: false, description: "print the build report as one JSON object on stdout" },
+  "--quiet": { takesValue: false, description: "no progress and no messages on stderr" },
+  "--force": { takesValue: false, description: "replace the output file if it exists" },
+};
+
+/** Runs the build command; returns the exit code. */
+export async function buildCommand(argv: string[]): Promise<number> {
+  const args = parseArgs(argv, BUILD_FLAGS);
+  if (args.positionals.length !== 1) throw new UsageError("build needs exactly one data file: sluice build <data> [--out model.sluice]");
+  const dataPath = args.positionals[0];
+  const quiet = args.switches.get("--quiet") === true;
+  const json = args.switches.get("--json") === true;
+  const say = (message: string) => {
+    if (!quiet) process.stderr.write(`${message}\n`);
+  };
+  const settings = settingsFromArgs(args);
+  const out = valueOf(args, "--out") ?? "model.sluice";
+  const force = args.switches.get("--force") === true;
+  const fields = { textFields: ["text"], labelField: "label" };
+  const { examples } = await readData(dataPath, args, fields, true, quiet);
+  const validationPath = valueOf(args, "--validation");
+  const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
+  const textFieldValue = valueOf(args, "--text-field");
+  const { bytes, report } = await build({
+    examples,
+    validation,
+    settings,
+    buildTime: buildTime(),
+    dataSha256: await sha256OfFile(dataPath),
+    dataName: basename(dataPath),
+    onProgress: createProgressBar(!quiet && !json),
+    onMessage: say,
+    fields: { text: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()) : ["text"], label: valueOf(args, "--label-field") ?? "label" },
+  });
+  clearProgressLine();
+  for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
+  writeFileAtomic(out, bytes, { force });
+  if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
+  else process.stdout.write(`${describeBuild(out, report)}\n`);
+  return 0;
+}
+
+/** Settings from --config, then flags on top. */
+function settingsFromArgs(args: ReturnType<typeof parseArgs>): BuildSettings {
+  const configPath = valueOf(args, "--config");
+  let partial: Record<string, unknown> = {};
+  if (configPath) {
+    let text: string;
+    try {
+      text = readFileSync(configPath, "utf8");
+    } catch (error) {
+      throw new Error(`cannot read config ${configPath}: ${(error as Error).message}`);
+    }
+    try {
+      partial = JSON.parse(text) as Record<string, unknown>;
+    } catch (error) {
+      throw new Error(`${configPath}: not valid JSON (${(error as Error).message})`);
+    }
+    if (typeof partial !== "object" || partial === null || Array.isArray(partial)) throw new Error(`${configPath}: expected a JSON object of settings`);
+    partial = (partial.build as Record<string, unknown>) ?? partial;
+  }
+  const settings = resolveBuildSettings(partial, configPath ?? "settings") as unknown as Record<string, unknown>;
+  for (const [key, spec] of Object.entries(BUILD_SETTINGS)) {
+    if (spec.kind === "boolean") {
+      const value = args.switches.get(spec.flag);
+      if (value !== undefined) settings[key] = value;
+      continue;
+    }
+    const values = args.values.get(spec.flag);
+    if (!values) continue;
+    if (spec.kind === "map") {
+      const merged: Record<string, number> = {};
+      for (const value of values) Object.assign(merged, parseSetting(key as "targetPrecision", value, spec.flag));
+      settings[key] = merged;
+    } else settings[key] = parseSetting(key as keyof BuildSettings, values[values.length - 1], spec.flag);
+  }
+  return settings as unknown as BuildSettings;
+}
+
+/** Build time for provenance: SOURCE_DATE_EPOCH (reproducible-builds.org) when set, else now. */
+function buildTime(): string {
+  const epoch = process.env.SOURCE_DATE_EPOCH;
+  if (epoch !== undefined && /^\d+$/.test(epoch)) return new Date(Number(epoch) * 1000).toISOString();
+  return new Date().toISOString();
+}
+
+function describeBuild(out: string, report: BuildReport): string {
+  const lines = [
+    `wrote ${out}: ${report.bytes} bytes, ${report.head} head over ${report.labels.length} labels (${report.headReason})`,
+    `trained on ${report.trainExamples} examples in ${report.trainSeconds.toFixed(2)} s (${(report.tokensPerSecond / 1e6).toFixed(2)}M tokens/s); validated on ${report.validationExamples}`,
+    `feature rows: ${report.rows.kept} kept of ${report.rows.seen}`,
+    "",
+    formatTable(
+      ["model", "accuracy", "macro-F1", "bytes"],
+      [
+        ["draft (float32, all rows)", fixed(report.draft.accuracy), fixed(report.draft.macroF1), report.draft.bytes],
+        ["compiled (shipped)", fixed(report.compiled.accuracy), fixed(report.compiled.macroF1), report.bytes],
+      ],
+    ),
+    "",
+    `sections: ${Object.entries(report.sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
+  ];
+  if (report.calibration) lines.push(`calibration: temperature ${report.calibration.temperature.toFixed(3)}, ECE ${fixed(report.calibration.eceBefore)} → ${fixed(report.calibration.eceAfter)}`);
+  if (report.policy) {
+    for (const [label, rule] of Object.entries(report.policy)) {
+      lines.push(`policy ${label}: ${rule.action} at ≥ ${rule.threshold.toFixed(3)}${rule.reviewFrom !== null ? `, review from ${rule.reviewFrom.toFixed(3)}` : ""} (validation precision ${fixed(rule.precision)}, recall ${fixed(rule.recall)}, review share ${fixed(rule.reviewShare)})`);
+    }
+  }
+  return lines.join("\n");
+}

@@ -1,0 +1,31 @@
+// Reads a model file for a command; a corrupt file is refused with the file name in the message.
+
+import { readFileSync } from "node:fs";
+import { loadModel } from "../../runtime/load-model.ts";
+import { ModelFormatError } from "../../runtime/errors.ts";
+import type { Model } from "../../runtime/model.ts";
+import type { FieldDefaults } from "./read-data.ts";
+
+/** Loads `path`; throws ModelFormatError with the path prefixed, or a plain error when unreadable. */
+export function loadModelFile(path: string): Model {
+  let bytes: Uint8Array;
+  try {
+    bytes = readFileSync(path);
+  } catch (error) {
+    throw new Error(`cannot read model ${path}: ${(error as NodeJS.ErrnoException).code === "ENOENT" ? "no such file" : (error as Error).message}`);
+  }
+  try {
+    return loadModel(bytes);
+  } catch (error) {
+    if (error instanceof ModelFormatError) throw new ModelFormatError(error.code, `${path}: ${error.message}`);
+    throw error;
+  }
+}
+
+/** The text and label fields the model was built from (so eval/classify default to them). */
+export function fieldsOf(model: Model): FieldDefaults {
+  const fields = model.meta.provenance.fields as { text?: unknown; label?: unknown } | null | undefined;
+  const text = Array.isArray(fields?.text) && fields.text.every((f) => typeof f === "string") ? (fields.text as string[]) : ["text"];
+  const label = typeof fields?.label === "string" ? fields.label : "label";
+  return { textFields: text, labelField: label };
+}

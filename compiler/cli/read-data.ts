@@ -1,0 +1,65 @@
+// Reading a data file for a command: the shared data flags, the read report on stderr,
+// and the SHA-256 of the file for provenance.
+
+import { createHash } from "node:crypto";
+import { createReadStream } from "node:fs";
+import { createReadReport, readExamples, readExamplesFromText, type DataFormat, type Example, type ReadReport } from "../read/index.ts";
+import { valueOf, type FlagSpec, type ParsedArgs } from "./parse-args.ts";
+
+export const DATA_FLAGS: Record<string, FlagSpec> = {
+  "--text-field": { takesValue: true, description: "field(s) holding the text, comma-separated, joined in order (default text)" },
+  "--label-field": { takesValue: true, description: "field holding the label(s) (default label)" },
+  "--label-sep": { takesValue: true, description: "separator of several labels in one cell" },
+  "--format": { takesValue: true, description: "csv, tsv or jsonl (default: from the extension)" },
+  "--skip-bad": { takesValue: false, description: "skip bad rows (reported) instead of stopping at the first" },
+};
+
+export interface FieldDefaults {
+  textFields: string[];
+  labelField: string;
+}
+
+/** Reads every example of `path` ("-" = stdin); prints the read report to stderr. */
+export async function readData(path: string, args: ParsedArgs, defaults: FieldDefaults, requireLabels: boolean, quiet: boolean): Promise<{ examples: Example[]; report: ReadReport }> {
+  const textFieldValue = valueOf(args, "--text-field");
+  const format = valueOf(args, "--format");
+  if (format !== undefined && !["csv", "tsv", "jsonl"].includes(format)) throw new Error(`--format: expected csv, tsv or jsonl, got "${format}"`);
+  const options = {
+    textFields: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()).filter(Boolean) : defaults.textFields,
+    labelField: valueOf(args, "--label-field") ?? defaults.labelField,
+    labelSep: valueOf(args, "--label-sep"),
+    format: format as DataFormat | undefined,
+    requireLabels,
+    skipBad: args.switches.get("--skip-bad") === true,
+  };
+  const report = createReadReport(path);
+  const examples: Example[] = [];
+  const source = path === "-" ? readExamplesFromText("stdin", await readStdin(), { ...options, format: options.format ?? "jsonl" }, report) : readExamples(path, options, report);
+  for await (const example of source) examples.push(example);
+  if (!quiet) describeReadReport(report);
+  return { examples, report };
+}
+
+/** One line (plus samples) about what was read and what was left out, on stderr. */
+export function describeReadReport(report: ReadReport): void {
+  const parts = [`${report.examples} examples`];
+  if (report.skipped > 0) parts.push(`${report.skipped} bad rows skipped (${Object.entries(report.skippedByReason).map(([r, n]) => `${r}: ${n}`).join(", ")})`);
+  if (report.emptyText > 0) parts.push(`${report.emptyText} empty texts left out`);
+  if (report.missingLabel > 0) parts.push(`${report.missingLabel} rows without a label left out`);
+  process.stderr.write(`${report.file}: ${report.rows} rows → ${parts.join(", ")}\n`);
+  for (const sample of report.samples) process.stderr.write(`  ${sample}\n`);
+}
+
+/** SHA-256 of a file, streamed. */
+export async function sha256OfFile(path: string): Promise<string> {
+  const hash = createHash("sha256");
+  for await (const chunk of createReadStream(path)) hash.update(chunk as Buffer);
+  return hash.digest("hex");
+}
+
+/** All of stdin as text. */
+export async function readStdin(): Promise<string> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks).toString("utf8");
+}

@@ -1,0 +1,66 @@
+// Which feature rows to keep under a row or byte budget.
+//
+// Criterion: importance(row) = ‖O · row‖₂ × document frequency. ‖O · row‖ is how far the
+// row moves the logits when it is the only feature (the output layer O ignores directions
+// it never reads, so the raw row norm would overrate them); document frequency is how
+// many training texts it moves. Their product estimates a row's total effect on the
+// training set's logits, so dropping the lowest-ranked rows changes the fewest decisions.
+
+import type { Draft } from "../train/draft.ts";
+
+/** Importance of every row of the draft (see the criterion above). */
+export function rowImportance(draft: Draft): Float64Array {
+  const { dims, rows, outputs, outputCount, documentFrequency } = draft;
+  const rowCount = rows.length / dims;
+  const importance = new Float64Array(rowCount);
+  for (let row = 0; row < rowCount; row++) {
+    const base = row * dims;
+    let squared = 0;
+    for (let k = 0; k < outputCount; k++) {
+      let dot = 0;
+      for (let j = 0; j < dims; j++) dot += outputs[k * dims + j] * rows[base + j];
+      squared += dot * dot;
+    }
+    const weight = draft.rowWeights === null ? 1 : draft.rowWeights[row];
+    importance[row] = Math.sqrt(squared) * weight * documentFrequency[row];
+  }
+  return importance;
+}
+
+/**
+ * Row ids of the `keep` most important rows, ascending (so slots stay sorted).
+ * Ties break toward the lower row id, keeping the result deterministic.
+ */
+export function selectRows(importance: Float64Array, keep: number): Int32Array {
+  const rowCount = importance.length;
+  if (keep >= rowCount) return Int32Array.from({ length: rowCount }, (_, i) => i);
+  const order = Int32Array.from({ length: rowCount }, (_, i) => i);
+  order.sort((a, b) => importance[b] - importance[a] || a - b);
+  const kept = order.slice(0, keep);
+  kept.sort();
+  return kept;
+}
+
+/** A draft holding only `keptRows` (output layer copied). */
+export function subsetDraft(draft: Draft, keptRows: Int32Array): Draft {
+  const dims = draft.dims;
+  const rows = new Float32Array(keptRows.length * dims);
+  const slots = new Uint32Array(keptRows.length);
+  const documentFrequency = new Uint32Array(keptRows.length);
+  const rowWeights = draft.rowWeights ? new Float32Array(keptRows.length) : null;
+  keptRows.forEach((row, i) => {
+    rows.set(draft.rows.subarray(row * dims, (row + 1) * dims), i * dims);
+    slots[i] = draft.slots[row];
+    documentFrequency[i] = draft.documentFrequency[row];
+    if (rowWeights && draft.rowWeights) rowWeights[i] = draft.rowWeights[row];
+  });
+  return {
+    ...draft,
+    slots,
+    documentFrequency,
+    rows,
+    rowWeights,
+    outputs: Float32Array.from(draft.outputs),
+    bias: Float32Array.from(draft.bias),
+  };
+}

@@ -1,0 +1,165 @@
+// Serializes a model to the .sluice layout defined in runtime/format.ts (byte table in
+// runtime/FORMAT.md). The writer imports the same constants the loader reads.
+
+import { pack } from "msgpackr";
+import { crc32 } from "../../runtime/crc32.ts";
+import {
+  CHECKSUM_BYTES,
+  DIRECTORY_ENTRY_BYTES,
+  ELEMENT,
+  FORMAT_VERSION,
+  HEADER_LENGTH_OFFSET,
+  MAGIC,
+  MAX_HEADER_BYTES,
+  PRELUDE_BYTES,
+  SECTION,
+  VERSION_OFFSET,
+  alignUp,
+  type SectionName,
+} from "../../runtime/format.ts";
+import type { ModelHeader } from "../../runtime/model-header.ts";
+import { chooseBucketBits } from "../../runtime/slot-index.ts";
+
+/** A model ready to write: header fields plus numeric arrays. `index` is computed here. */
+export interface ModelContents {
+  header: Omit<ModelHeader, "index" | "rowCount" | "quantization">;
+  /** Slot of each row, strictly ascending. */
+  slots: Uint32Array;
+  rows: Int8Array | Float32Array;
+  rowScales: Float32Array | null;
+  rowWeights: Float32Array | null;
+  outputWeights: Int8Array | Float32Array;
+  outputScales: Float32Array | null;
+  outputBias: Float32Array;
+  tree: Int32Array | null;
+}
+
+type Typed = Int8Array | Uint8Array | Uint16Array | Uint32Array | Int32Array | Float32Array;
+
+interface PlannedSection {
+  name: SectionName;
+  element: keyof typeof ELEMENT;
+  data: Typed;
+}
+
+/**
+ * The bytes of a model file.
+ * @example const bytes = writeModel(contents); loadModel(bytes).classify("hi")
+ */
+export function writeModel(contents: ModelContents): Uint8Array {
+  const hashBits = contents.header.featurizer.hashBits;
+  const rowCount = contents.slots.length;
+  const bucketBits = chooseBucketBits(rowCount, hashBits);
+  const lowBits = hashBits - bucketBits;
+  const { buckets, keys } = buildSlotIndex(contents.slots, bucketBits, lowBits);
+  const header: ModelHeader = {
+    ...contents.header,
+    rowCount,
+    quantization: contents.header.precision === "int8" ? { scheme: "symmetric-per-row", bits: 8 } : null,
+    index: { bucketBits, lowBits },
+  };
+  const headerBytes = pack(orderedHeader(header)) as Uint8Array;
+  if (headerBytes.length > MAX_HEADER_BYTES) throw new Error(`model header is ${headerBytes.length} bytes, over the ${MAX_HEADER_BYTES}-byte limit (too many labels?)`);
+  const int8 = header.precision === "int8";
+  const sections: PlannedSection[] = [
+    { name: "slotBuckets", element: rowCount < 65536 ? "u16" : "u32", data: buckets },
+    { name: "slotKeys", element: lowBits <= 8 ? "u8" : "u16", data: keys },
+    { name: "rows", element: int8 ? "i8" : "f32", data: contents.rows },
+  ];
+  if (int8) sections.push({ name: "rowScales", element: "f32", data: contents.rowScales as Float32Array });
+  if (header.weighting === "tfidf") sections.push({ name: "rowWeights", element: "f32", data: contents.rowWeights as Float32Array });
+  sections.push({ name: "outputWeights", element: int8 ? "i8" : "f32", data: contents.outputWeights });
+  if (int8) sections.push({ name: "outputScales", element: "f32", data: contents.outputScales as Float32Array });
+  sections.push({ name: "outputBias", element: "f32", data: contents.outputBias });
+  if (header.head === "tree") sections.push({ name: "tree", element: "i32", data: contents.tree as Int32Array });
+
+  const directoryStart = alignUp(PRELUDE_BYTES + headerBytes.length);
+  let cursor = alignUp(directoryStart + 8 + sections.length * DIRECTORY_ENTRY_BYTES);
+  const placed = sections.map((section) => {
+    const offset = cursor;
+    cursor = alignUp(offset + section.data.byteLength);
+    return { ...section, offset };
+  });
+  const dataEnd = placed.length > 0 ? placed[placed.length - 1].offset + placed[placed.length - 1].data.byteLength : cursor;
+  const total = dataEnd + CHECKSUM_BYTES;
+  const bytes = new Uint8Array(total);
+  const view = new DataView(bytes.buffer);
+  bytes.set(MAGIC, 0);
+  view.setUint16(VERSION_OFFSET, FORMAT_VERSION, true);
+  view.setUint32(HEADER_LENGTH_OFFSET, headerBytes.length, true);
+  bytes.set(headerBytes, PRELUDE_BYTES);
+  view.setUint32(directoryStart, placed.length, true);
+  placed.forEach((section, i) => {
+    const at = directoryStart + 8 + i * DIRECTORY_ENTRY_BYTES;
+    view.setUint32(at, SECTION[section.name], true);
+    view.setUint32(at + 4, ELEMENT[section.element], true);
+    view.setUint32(at + 8, section.offset, true);
+    view.setUint32(at + 12, section.data.byteLength, true);
+    bytes.set(new Uint8Array(section.data.buffer, section.data.byteOffset, section.data.byteLength), section.offset);
+  });
+  view.setUint32(dataEnd, crc32(bytes, 0, dataEnd), true);
+  return bytes;
+}
+
+/** Bytes each section takes in a file written from `contents` (for build reports). */
+export function sectionSizes(bytes: Uint8Array): Record<string, number> {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const headerLength = view.getUint32(HEADER_LENGTH_OFFSET, true);
+  const directoryStart = alignUp(PRELUDE_BYTES + headerLength);
+  const count = view.getUint32(directoryStart, true);
+  const sizes: Record<string, number> = { header: headerLength + PRELUDE_BYTES };
+  const names = Object.fromEntries(Object.entries(SECTION).map(([name, id]) => [id, name]));
+  for (let i = 0; i < count; i++) {
+    const at = directoryStart + 8 + i * DIRECTORY_ENTRY_BYTES;
+    sizes[names[view.getUint32(at, true)] ?? `section-${view.getUint32(at, true)}`] = view.getUint32(at + 12, true);
+  }
+  return sizes;
+}
+
+function buildSlotIndex(slots: Uint32Array, bucketBits: number, lowBits: number): { buckets: Uint16Array | Uint32Array; keys: Uint8Array | Uint16Array } {
+  const bucketCount = 2 ** bucketBits;
+  const buckets = slots.length < 65536 ? new Uint16Array(bucketCount + 1) : new Uint32Array(bucketCount + 1);
+  const keys = lowBits <= 8 ? new Uint8Array(slots.length) : new Uint16Array(slots.length);
+  const lowMask = lowBits === 0 ? 0 : (1 << lowBits) - 1;
+  let row = 0;
+  for (let bucket = 0; bucket < bucketCount; bucket++) {
+    buckets[bucket] = row;
+    while (row < slots.length && slots[row] >>> lowBits === bucket) {
+      if (row > 0 && slots[row] <= slots[row - 1]) throw new Error("writeModel: slots must be strictly ascending");
+      keys[row] = slots[row] & lowMask;
+      row++;
+    }
+  }
+  if (row !== slots.length) throw new Error(`writeModel: slot ${slots[row]} is outside the ${bucketBits + lowBits}-bit feature space`);
+  buckets[bucketCount] = row;
+  return { buckets, keys };
+}
+
+/** A fixed key order, so equal models give equal bytes. */
+function orderedHeader(header: ModelHeader): Record<string, unknown> {
+  return {
+    labels: header.labels,
+    head: header.head,
+    dims: header.dims,
+    rowCount: header.rowCount,
+    outputCount: header.outputCount,
+    featurizer: {
+      normalization: header.featurizer.normalization,
+      wordSpan: header.featurizer.wordSpan,
+      charMin: header.featurizer.charMin,
+      charMax: header.featurizer.charMax,
+      hashBits: header.featurizer.hashBits,
+      hashSeed: header.featurizer.hashSeed,
+      maxTokens: header.featurizer.maxTokens,
+    },
+    weighting: header.weighting,
+    precision: header.precision,
+    quantization: header.quantization,
+    index: header.index,
+    calibration: header.calibration,
+    thresholds: header.thresholds,
+    policy: header.policy,
+    metrics: header.metrics,
+    provenance: header.provenance,
+  };
+}

@@ -1,0 +1,62 @@
+// The draft: an uncompressed float model inside the compiler, before pruning and
+// quantization. Rows exist only for kept slots (seen in ≥ minDocs training examples).
+
+import type { HeadKind } from "../../runtime/model-header.ts";
+import type { RandomSource } from "./random.ts";
+
+export interface Draft {
+  head: HeadKind;
+  labels: string[];
+  dims: number;
+  /** Slot of each row, ascending. */
+  slots: Uint32Array;
+  /** Training examples each row's slot occurs in. */
+  documentFrequency: Uint32Array;
+  /** rowCount × dims. */
+  rows: Float32Array;
+  /** IDF per row under TF-IDF weighting, else null. */
+  rowWeights: Float32Array | null;
+  /** outputCount × dims: one row per label, or per inner node of the label tree. */
+  outputs: Float32Array;
+  bias: Float32Array;
+  outputCount: number;
+  /** Children of the inner nodes (tree head only; see runtime/label-tree.ts). */
+  tree: Int32Array | null;
+}
+
+/**
+ * A fresh draft: rows uniform in ±1/dims, output weights zero — the usual start for this
+ * model family (common practice, no source): the output starts neutral, rows break symmetry.
+ */
+export function createDraft(options: {
+  head: HeadKind;
+  labels: string[];
+  dims: number;
+  slots: Uint32Array;
+  documentFrequency: Uint32Array;
+  rowWeights: Float32Array | null;
+  tree: Int32Array | null;
+  random: RandomSource;
+  shared?: boolean;
+}): Draft {
+  const { dims, slots, random } = options;
+  const outputCount = options.head === "tree" ? options.labels.length - 1 : options.labels.length;
+  const allocate = (length: number) =>
+    options.shared ? new Float32Array(new SharedArrayBuffer(length * 4)) : new Float32Array(length);
+  const rows = allocate(slots.length * dims);
+  const bound = 1 / dims;
+  for (let i = 0; i < rows.length; i++) rows[i] = (random.next() * 2 - 1) * bound;
+  return {
+    head: options.head,
+    labels: options.labels,
+    dims,
+    slots,
+    documentFrequency: options.documentFrequency,
+    rows,
+    rowWeights: options.rowWeights,
+    outputs: allocate(outputCount * dims),
+    bias: allocate(outputCount),
+    outputCount,
+    tree: options.tree,
+  };
+}

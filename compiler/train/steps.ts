@@ -1,0 +1,151 @@
+// One SGD step per example for each head. Forward: hidden = Σ w·row / Σ w, logits from the
+// output rows. Backward: the gradient of the example's loss with respect to the logits,
+// pushed to the output rows and, through the hidden vector, to every feature row.
+// All gradients are computed before any weight moves, so a step with learning rate 1
+// subtracts exactly the gradient (the finite-difference test relies on this).
+
+import type { Draft } from "./draft.ts";
+
+/** Scratch vectors reused by every step (one set per training thread). */
+export interface StepScratch {
+  hidden: Float64Array;
+  gradHidden: Float64Array;
+  logits: Float64Array;
+  gradLogits: Float64Array;
+}
+
+export function createStepScratch(dims: number, outputCount: number): StepScratch {
+  return {
+    hidden: new Float64Array(dims),
+    gradHidden: new Float64Array(dims),
+    logits: new Float64Array(outputCount),
+    gradLogits: new Float64Array(outputCount),
+  };
+}
+
+/** Label paths of a tree head: inner nodes and the direction (+1 first child, −1 second) per label. */
+export interface TreePaths {
+  offsets: Uint32Array;
+  nodes: Int32Array;
+  directions: Int8Array;
+}
+
+/** hidden = Σ w_f row_f / Σ w_f over features[start, end); returns Σ w_f. */
+export function computeHidden(draft: Draft, features: Uint32Array, start: number, end: number, hidden: Float64Array): number {
+  const dims = draft.dims;
+  const rows = draft.rows;
+  const weights = draft.rowWeights;
+  hidden.fill(0);
+  let total = 0;
+  for (let f = start; f < end; f++) {
+    const row = features[f];
+    const weight = weights === null ? 1 : weights[row];
+    total += weight;
+    const base = row * dims;
+    for (let j = 0; j < dims; j++) hidden[j] += weight * rows[base + j];
+  }
+  if (total > 0) {
+    const inverse = 1 / total;
+    for (let j = 0; j < dims; j++) hidden[j] *= inverse;
+  }
+  return total;
+}
+
+function outputLogit(draft: Draft, output: number, hidden: Float64Array): number {
+  const dims = draft.dims;
+  const base = output * dims;
+  const outputs = draft.outputs;
+  let sum = draft.bias[output];
+  for (let j = 0; j < dims; j++) sum += outputs[base + j] * hidden[j];
+  return sum;
+}
+
+/** Moves output row `output` and its bias by −lr·g and accumulates g·row into gradHidden. */
+function updateOutput(draft: Draft, output: number, g: number, learningRate: number, s: StepScratch): void {
+  const dims = draft.dims;
+  const base = output * dims;
+  const outputs = draft.outputs;
+  for (let j = 0; j < dims; j++) {
+    s.gradHidden[j] += g * outputs[base + j];
+    outputs[base + j] -= learningRate * g * s.hidden[j];
+  }
+  draft.bias[output] -= learningRate * g;
+}
+
+/** rows −= lr · (w_f / Σw) · gradHidden for every feature occurrence. */
+function updateRows(draft: Draft, features: Uint32Array, start: number, end: number, totalWeight: number, learningRate: number, s: StepScratch): void {
+  if (totalWeight <= 0) return;
+  const dims = draft.dims;
+  const rows = draft.rows;
+  const weights = draft.rowWeights;
+  const gradHidden = s.gradHidden;
+  for (let f = start; f < end; f++) {
+    const row = features[f];
+    const scale = (learningRate * (weights === null ? 1 : weights[row])) / totalWeight;
+    const base = row * dims;
+    for (let j = 0; j < dims; j++) rows[base + j] -= scale * gradHidden[j];
+  }
+}
+
+/**
+ * Softmax + negative log-likelihood of `gold`. Returns the loss before the update.
+ * `trainRows = false` freezes the feature rows (fine-tuning the output after pruning).
+ */
+export function softmaxStep(draft: Draft, features: Uint32Array, start: number, end: number, gold: number, learningRate: number, s: StepScratch, trainRows = true): number {
+  const totalWeight = computeHidden(draft, features, start, end, s.hidden);
+  const count = draft.outputCount;
+  let max = -Infinity;
+  for (let k = 0; k < count; k++) {
+    const z = outputLogit(draft, k, s.hidden);
+    s.logits[k] = z;
+    if (z > max) max = z;
+  }
+  let sum = 0;
+  for (let k = 0; k < count; k++) sum += Math.exp(s.logits[k] - max);
+  const logSum = max + Math.log(sum);
+  const loss = logSum - s.logits[gold];
+  for (let k = 0; k < count; k++) s.gradLogits[k] = Math.exp(s.logits[k] - logSum) - (k === gold ? 1 : 0);
+  s.gradHidden.fill(0);
+  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s);
+  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  return loss;
+}
+
+/** Independent sigmoids with binary cross-entropy, gold labels in labels[labelStart, labelEnd). */
+export function sigmoidStep(draft: Draft, features: Uint32Array, start: number, end: number, labels: Int32Array, labelStart: number, labelEnd: number, learningRate: number, s: StepScratch, trainRows = true): number {
+  const totalWeight = computeHidden(draft, features, start, end, s.hidden);
+  const count = draft.outputCount;
+  let loss = 0;
+  for (let k = 0; k < count; k++) {
+    let target = 0;
+    for (let l = labelStart; l < labelEnd; l++) if (labels[l] === k) target = 1;
+    const z = outputLogit(draft, k, s.hidden);
+    // log(1 + e^-z) for target 1, log(1 + e^z) for target 0, computed stably.
+    const signed = target === 1 ? -z : z;
+    loss += signed > 0 ? signed + Math.log1p(Math.exp(-signed)) : Math.log1p(Math.exp(signed));
+    s.gradLogits[k] = 1 / (1 + Math.exp(-z)) - target;
+  }
+  s.gradHidden.fill(0);
+  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s);
+  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  return loss;
+}
+
+/** Hierarchical softmax: binary logistic losses along the gold label's path only. */
+export function treeStep(draft: Draft, features: Uint32Array, start: number, end: number, gold: number, paths: TreePaths, learningRate: number, s: StepScratch, trainRows = true): number {
+  const totalWeight = computeHidden(draft, features, start, end, s.hidden);
+  const pathStart = paths.offsets[gold];
+  const pathEnd = paths.offsets[gold + 1];
+  let loss = 0;
+  for (let p = pathStart; p < pathEnd; p++) {
+    const node = paths.nodes[p];
+    const z = outputLogit(draft, node, s.hidden);
+    const signed = paths.directions[p] * z; // log σ(signed) is this node's log-probability
+    loss += signed > 0 ? Math.log1p(Math.exp(-signed)) : -signed + Math.log1p(Math.exp(signed));
+    s.gradLogits[p - pathStart] = (1 / (1 + Math.exp(-z)) - (paths.directions[p] > 0 ? 1 : 0));
+  }
+  s.gradHidden.fill(0);
+  for (let p = pathStart; p < pathEnd; p++) updateOutput(draft, paths.nodes[p], s.gradLogits[p - pathStart], learningRate, s);
+  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  return loss;
+}

@@ -1,0 +1,110 @@
+// The SGD loop: epochs over a seeded shuffle, learning rate decaying linearly to zero
+// over the whole run, progress reported every few thousand examples.
+
+import type { Draft } from "./draft.ts";
+import type { EncodedExamples } from "./encode.ts";
+import { createRandom, shuffleInPlace, type RandomSource } from "./random.ts";
+import { createStepScratch, sigmoidStep, softmaxStep, treeStep, type TreePaths } from "./steps.ts";
+
+export interface TrainSettings {
+  epochs: number;
+  learningRate: number;
+  seed: number;
+}
+
+export interface TrainProgress {
+  epoch: number;
+  epochs: number;
+  /** Fraction of the whole run done, 0..1. */
+  done: number;
+  /** Mean loss over the examples since the last report. */
+  loss: number;
+  tokensPerSecond: number;
+  etaSeconds: number;
+}
+
+export interface TrainResult {
+  seconds: number;
+  tokensPerSecond: number;
+  /** Mean loss of the last epoch. */
+  finalLoss: number;
+}
+
+export interface TrainOptions {
+  paths?: TreePaths | null;
+  /** false: feature rows stay fixed, only the output layer learns. */
+  trainRows?: boolean;
+  random?: RandomSource;
+  onProgress?: (progress: TrainProgress) => void;
+  /** The run covers examples [firstStep, firstStep + epochs·count) of a longer schedule (threads). */
+  schedule?: { offset: number; total: number };
+  /** Train on these example indexes only (default: all). */
+  subset?: Int32Array;
+}
+
+const REPORT_EVERY = 4096;
+
+/**
+ * Trains `draft` in place on `data` (features already mapped to row ids).
+ * @example trainDraft(draft, encoded, { epochs: 5, learningRate: 0.5, seed: 1 })
+ */
+export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainSettings, options: TrainOptions = {}): TrainResult {
+  const random = options.random ?? createRandom(settings.seed);
+  const scratch = createStepScratch(draft.dims, draft.outputCount);
+  const trainRows = options.trainRows ?? true;
+  const order = options.subset ? Int32Array.from(options.subset) : Int32Array.from({ length: data.count }, (_, i) => i);
+  const count = order.length;
+  const tokensPerExample = data.count > 0 ? data.tokenTotal / data.count : 0;
+  const totalSteps = options.schedule?.total ?? settings.epochs * count;
+  const stepOffset = options.schedule?.offset ?? 0;
+  const started = performance.now();
+  let step = 0;
+  let reportLoss = 0;
+  let reportCount = 0;
+  let epochLoss = 0;
+  const { offsets, features, labelOffsets, labelList } = data;
+  for (let epoch = 0; epoch < settings.epochs; epoch++) {
+    shuffleInPlace(order, random);
+    epochLoss = 0;
+    for (let i = 0; i < count; i++) {
+      const example = order[i];
+      const progress = (stepOffset + step) / totalSteps;
+      const learningRate = settings.learningRate * Math.max(0, 1 - progress);
+      const start = offsets[example];
+      const end = offsets[example + 1];
+      const labelStart = labelOffsets[example];
+      let loss: number;
+      if (draft.head === "softmax") {
+        loss = softmaxStep(draft, features, start, end, labelList[labelStart], learningRate, scratch, trainRows);
+      } else if (draft.head === "sigmoid") {
+        loss = sigmoidStep(draft, features, start, end, labelList, labelStart, labelOffsets[example + 1], learningRate, scratch, trainRows);
+      } else {
+        loss = treeStep(draft, features, start, end, labelList[labelStart], options.paths as TreePaths, learningRate, scratch, trainRows);
+      }
+      epochLoss += loss;
+      reportLoss += loss;
+      reportCount++;
+      step++;
+      if (options.onProgress && reportCount === REPORT_EVERY) {
+        const seconds = (performance.now() - started) / 1000;
+        const done = step / (settings.epochs * count);
+        options.onProgress({
+          epoch: epoch + 1,
+          epochs: settings.epochs,
+          done,
+          loss: reportLoss / reportCount,
+          tokensPerSecond: (step * tokensPerExample) / Math.max(seconds, 1e-9),
+          etaSeconds: done > 0 ? (seconds / done) * (1 - done) : 0,
+        });
+        reportLoss = 0;
+        reportCount = 0;
+      }
+    }
+  }
+  const seconds = (performance.now() - started) / 1000;
+  return {
+    seconds,
+    tokensPerSecond: (settings.epochs * count * tokensPerExample) / Math.max(seconds, 1e-9),
+    finalLoss: count > 0 ? epochLoss / count : 0,
+  };
+}

@@ -1,0 +1,344 @@
+// A loaded model: scores texts from typed-array views over the model file.
+// The model is linear up to the output nonlinearity:
+//   hidden = Σ_f w_f · row_f / Σ_f w_f          (w_f = 1, or the row's IDF under TF-IDF)
+//   logit_k = (outputScale_k · Σ_j out_kj · hidden_j + bias_k) / temperature
+// so every logit splits exactly into per-feature contributions plus the bias (explain).
+
+import { InputError } from "./errors.ts";
+import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featurizer } from "./featurizer.ts";
+import type { ModelHeader } from "./model-header.ts";
+import { decideFromScores, type Decision } from "./policy.ts";
+import type { SlotIndex } from "./slot-index.ts";
+import { LabelTree } from "./label-tree.ts";
+
+/** The numeric parts of a model, as views over the file. */
+export interface ModelParts {
+  header: ModelHeader;
+  index: SlotIndex;
+  rows: Int8Array | Float32Array;
+  rowScales: Float32Array | null;
+  rowWeights: Float32Array | null;
+  outputWeights: Int8Array | Float32Array;
+  outputScales: Float32Array | null;
+  outputBias: Float32Array;
+  tree: Int32Array | null;
+  /** Content id: the file's CRC-32 as 8 hex digits. */
+  version: string;
+  byteLength: number;
+}
+
+export interface LabelScore {
+  label: string;
+  score: number;
+}
+
+export interface ClassifyOptions {
+  /** How many labels to return, best first (default: 1; for a sigmoid head, every label at or above its threshold). */
+  top?: number;
+  /** Leave out labels scoring below this (default 0). */
+  minScore?: number;
+}
+
+/** Scores of one text plus what the featurizer saw. */
+export interface ScoreResult {
+  scores: Float32Array;
+  tokenCount: number;
+  truncated: boolean;
+  /** Features that found a kept row (0 means the model knows nothing about this text). */
+  knownFeatures: number;
+}
+
+export interface FeatureContribution {
+  /** The word, word pair, character piece or shape token, as people read it. */
+  feature: string;
+  /** Its exact share of the (temperature-scaled) logit. */
+  contribution: number;
+}
+
+export interface LabelExplanation {
+  label: string;
+  score: number;
+  /** Temperature-scaled logit = bias + Σ contributions (over all features, not only the ones listed). */
+  logit: number;
+  bias: number;
+  features: FeatureContribution[];
+}
+
+export interface Explanation {
+  labels: LabelExplanation[];
+  tokenCount: number;
+  truncated: boolean;
+  /** Features of the text whose slot was pruned or never seen: they contribute nothing. */
+  unknownFeatures: number;
+}
+
+/** Public description of a model (no training data). */
+export interface ModelMeta {
+  version: string;
+  bytes: number;
+  labels: string[];
+  head: ModelHeader["head"];
+  dims: number;
+  rowCount: number;
+  precision: ModelHeader["precision"];
+  weighting: ModelHeader["weighting"];
+  featurizer: ModelHeader["featurizer"];
+  calibration: ModelHeader["calibration"];
+  thresholds: number[] | null;
+  policy: ModelHeader["policy"];
+  metrics: Record<string, unknown>;
+  provenance: Record<string, unknown>;
+}
+
+export class Model {
+  readonly meta: ModelMeta;
+  readonly labels: readonly string[];
+  private readonly parts: ModelParts;
+  private readonly featurizer: Featurizer;
+  private readonly buffer: FeatureBuffer;
+  private readonly hidden: Float64Array;
+  private readonly logits: Float64Array;
+  private readonly scores: Float32Array;
+  private readonly tree: LabelTree | null;
+  private lastTokenCount = 0;
+  private lastTruncated = false;
+  private lastKnown = 0;
+
+  constructor(parts: ModelParts) {
+    const header = parts.header;
+    this.parts = parts;
+    this.labels = header.labels;
+    this.featurizer = createFeaturizer(header.featurizer);
+    this.buffer = createFeatureBuffer(1024);
+    this.hidden = new Float64Array(header.dims);
+    this.logits = new Float64Array(header.outputCount);
+    this.scores = new Float32Array(header.labels.length);
+    this.tree = parts.tree ? new LabelTree(parts.tree, header.labels.length) : null;
+    this.meta = {
+      version: parts.version,
+      bytes: parts.byteLength,
+      labels: [...header.labels],
+      head: header.head,
+      dims: header.dims,
+      rowCount: header.rowCount,
+      precision: header.precision,
+      weighting: header.weighting,
+      featurizer: { ...header.featurizer },
+      calibration: { ...header.calibration },
+      thresholds: header.thresholds ? [...header.thresholds] : null,
+      policy: header.policy,
+      metrics: header.metrics,
+      provenance: header.provenance,
+    };
+  }
+
+  /**
+   * Labels and scores, best first.
+   * @example model.classify("my card was charged twice", { top: 2 }) // [{ label: "billing", score: 0.93 }, …]
+   */
+  classify(text: string, options: ClassifyOptions = {}): LabelScore[] {
+    checkText(text);
+    const minScore = options.minScore ?? 0;
+    if (options.top !== undefined && (!Number.isInteger(options.top) || options.top < 1)) {
+      throw new InputError("bad-option", `top must be a positive integer, got ${String(options.top)}`);
+    }
+    const scores = this.scoreText(text);
+    const thresholds = this.parts.header.thresholds;
+    const useThresholds = options.top === undefined && this.parts.header.head === "sigmoid";
+    const top = options.top ?? (useThresholds ? scores.length : 1);
+    const order = rankLabels(scores, top);
+    const result: LabelScore[] = [];
+    for (const k of order) {
+      if (scores[k] < minScore) continue;
+      if (useThresholds && scores[k] < (thresholds ? thresholds[k] : 0.5)) continue;
+      result.push({ label: this.labels[k], score: scores[k] });
+    }
+    return result;
+  }
+
+  /**
+   * All label scores of a text (a fresh array, in label order) and what the featurizer saw.
+   * @example model.score("hello").scores[0]
+   */
+  score(text: string): ScoreResult {
+    checkText(text);
+    const scores = this.scoreText(text).slice();
+    return { scores, tokenCount: this.lastTokenCount, truncated: this.lastTruncated, knownFeatures: this.lastKnown };
+  }
+
+  /**
+   * Writes all label scores into `out` (length = label count) without allocating.
+   * For evaluation loops; returns `out`.
+   */
+  scoreInto(text: string, out: Float32Array): Float32Array {
+    out.set(this.scoreText(text));
+    return out;
+  }
+
+  /**
+   * The decision of the model's policy for a text, with reasons (rules that fired and
+   * the features that pushed the label). Without a policy the action is always "allow".
+   * @example model.decide("WIN A FREE PRIZE") // { action: "review", label: "spam", score: 0.81, reasons: [...] }
+   */
+  decide(text: string): Decision {
+    checkText(text);
+    const scores = this.scoreText(text);
+    const decision = decideFromScores(this.parts.header.policy, this.labels, scores);
+    if (this.lastKnown === 0) decision.reasons.push("no known feature in the text: the score is the model's prior");
+    if (decision.action !== "allow" || this.parts.header.policy === null) {
+      const explanation = this.explainLabels(text, [this.labels.indexOf(decision.label)], 3);
+      const drivers = explanation.labels[0]?.features.filter((f) => f.contribution > 0) ?? [];
+      if (drivers.length > 0) decision.reasons.push(`pushed by ${drivers.map((f) => `"${f.feature}" (+${f.contribution.toFixed(2)})`).join(", ")}`);
+    }
+    if (this.lastTruncated) decision.reasons.push(`only the first ${this.parts.header.featurizer.maxTokens} tokens were read`);
+    return decision;
+  }
+
+  /**
+   * For each top label, the features with the largest exact contributions to its logit.
+   * @example model.explain("refund my order", { top: 1 }).labels[0].features[0] // { feature: "refund", contribution: 1.7 }
+   */
+  explain(text: string, options: { top?: number; features?: number } = {}): Explanation {
+    checkText(text);
+    const scores = this.scoreText(text);
+    const order = rankLabels(scores, options.top ?? 1);
+    return this.explainLabels(text, order, options.features ?? 10);
+  }
+
+  // ---- scoring ---------------------------------------------------------------------
+
+  /** Scores of `text` in the shared scratch array (valid until the next call). */
+  private scoreText(text: string): Float32Array {
+    const buffer = this.buffer;
+    this.featurizer.featurize(text, buffer);
+    this.lastTokenCount = buffer.tokenCount;
+    this.lastTruncated = buffer.truncated;
+    this.computeHidden(buffer.slots, buffer.count);
+    this.computeLogits();
+    this.computeScores();
+    return this.scores;
+  }
+
+  private computeHidden(slots: Uint32Array, count: number): void {
+    const { index, rows, rowScales, rowWeights } = this.parts;
+    const dims = this.hidden.length;
+    const hidden = this.hidden;
+    hidden.fill(0);
+    let totalWeight = 0;
+    let known = 0;
+    for (let f = 0; f < count; f++) {
+      const row = index.rowOf(slots[f]);
+      if (row < 0) continue;
+      known++;
+      const weight = rowWeights === null ? 1 : rowWeights[row];
+      totalWeight += weight;
+      const coefficient = rowScales === null ? weight : weight * rowScales[row];
+      const base = row * dims;
+      for (let j = 0; j < dims; j++) hidden[j] += coefficient * rows[base + j];
+    }
+    this.lastKnown = known;
+    if (totalWeight > 0) {
+      const inverse = 1 / totalWeight;
+      for (let j = 0; j < dims; j++) hidden[j] *= inverse;
+    }
+  }
+
+  private computeLogits(): void {
+    const { outputWeights, outputScales, outputBias } = this.parts;
+    const inverseTemperature = 1 / this.parts.header.calibration.temperature;
+    const dims = this.hidden.length;
+    const hidden = this.hidden;
+    const logits = this.logits;
+    for (let k = 0; k < logits.length; k++) {
+      const base = k * dims;
+      let sum = 0;
+      for (let j = 0; j < dims; j++) sum += outputWeights[base + j] * hidden[j];
+      const scale = outputScales === null ? 1 : outputScales[k];
+      logits[k] = (scale * sum + outputBias[k]) * inverseTemperature;
+    }
+  }
+
+  private computeScores(): void {
+    const logits = this.logits;
+    const scores = this.scores;
+    const head = this.parts.header.head;
+    if (head === "softmax") {
+      let max = -Infinity;
+      for (let k = 0; k < logits.length; k++) if (logits[k] > max) max = logits[k];
+      let sum = 0;
+      for (let k = 0; k < logits.length; k++) sum += Math.exp(logits[k] - max);
+      for (let k = 0; k < logits.length; k++) scores[k] = Math.exp(logits[k] - max) / sum;
+    } else if (head === "sigmoid") {
+      for (let k = 0; k < logits.length; k++) scores[k] = 1 / (1 + Math.exp(-logits[k]));
+    } else {
+      (this.tree as LabelTree).labelProbabilities(logits, scores);
+    }
+  }
+
+  // ---- explanations (allocate freely) ---------------------------------------------
+
+  private explainLabels(text: string, labelIndexes: number[], featureCount: number): Explanation {
+    const { index, rows, rowScales, rowWeights, outputWeights, outputScales, outputBias, header } = this.parts;
+    const named = createFeatureBuffer(256, true);
+    this.featurizer.featurize(text, named);
+    const scores = this.scoreText(text).slice();
+    const dims = header.dims;
+    const inverseTemperature = 1 / header.calibration.temperature;
+    let totalWeight = 0;
+    let unknown = 0;
+    for (let f = 0; f < named.count; f++) {
+      const row = index.rowOf(named.slots[f]);
+      if (row < 0) unknown++;
+      else totalWeight += rowWeights === null ? 1 : rowWeights[row];
+    }
+    const labels: LabelExplanation[] = [];
+    for (const k of labelIndexes) {
+      if (k < 0) continue;
+      // For a tree head the label's path has several output rows; explain the softmax/sigmoid
+      // row when there is one per label, else the first inner node on the path.
+      const outputRow = header.head === "tree" ? (this.tree as LabelTree).firstNodeOf(k) : k;
+      const byName = new Map<string, number>();
+      const outputScale = outputScales === null ? 1 : outputScales[outputRow];
+      for (let f = 0; f < named.count; f++) {
+        const row = index.rowOf(named.slots[f]);
+        if (row < 0) continue;
+        const weight = rowWeights === null ? 1 : rowWeights[row];
+        const rowScale = rowScales === null ? 1 : rowScales[row];
+        let dot = 0;
+        for (let j = 0; j < dims; j++) dot += outputWeights[outputRow * dims + j] * rows[row * dims + j];
+        const contribution = ((weight * rowScale * outputScale * dot) / totalWeight) * inverseTemperature;
+        const name = (named.names as string[])[f];
+        byName.set(name, (byName.get(name) ?? 0) + contribution);
+      }
+      const features = [...byName.entries()]
+        .map(([feature, contribution]) => ({ feature, contribution }))
+        .sort((a, b) => Math.abs(b.contribution) - Math.abs(a.contribution) || (a.feature < b.feature ? -1 : 1))
+        .slice(0, featureCount);
+      const bias = outputBias[outputRow] * inverseTemperature;
+      labels.push({ label: this.labels[k], score: scores[k], logit: this.logits[outputRow], bias, features });
+    }
+    return { labels, tokenCount: named.tokenCount, truncated: named.truncated, unknownFeatures: unknown };
+  }
+}
+
+function checkText(text: unknown): void {
+  if (typeof text !== "string") throw new InputError("not-text", `expected the text as a string, got ${text === null ? "null" : typeof text}`);
+}
+
+/** Indexes of the `top` highest scores, best first (ties: lower index first). */
+function rankLabels(scores: Float32Array, top: number): number[] {
+  const count = Math.min(top, scores.length);
+  const order: number[] = [];
+  for (let k = 0; k < scores.length; k++) {
+    if (order.length === count && scores[k] <= scores[order[count - 1]]) continue;
+    let position = order.length === count ? count - 1 : order.length;
+    order[position] = k;
+    while (position > 0 && scores[order[position]] > scores[order[position - 1]]) {
+      const swap = order[position - 1];
+      order[position - 1] = order[position];
+      order[position] = swap;
+      position--;
+    }
+  }
+  return order;
+}
