@@ -31,11 +31,15 @@ export interface BuildSettings {
   targetPrecision: Record<string, number>;
   /** Label → recall to reach on validation data. */
   targetRecall: Record<string, number>;
+  /** Label → what its rule does when the threshold is reached: "block", "review" or "route:<destination>". */
+  actions: Record<string, string>;
+  /** Send a text to review when its top score is below this (0 = off). */
+  reviewBelow: number;
   /** Fit temperature scaling on the validation split. */
   calibrate: boolean;
 }
 
-type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "boolean";
+type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "actions" | "boolean";
 
 export interface SettingSpec<K extends keyof BuildSettings> {
   flag: string;
@@ -69,6 +73,8 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   maxTokens: { flag: "--max-tokens", kind: "int", min: 1, max: 1 << 20, default: 2000, description: "tokens read per text; the rest is ignored and reported" },
   targetPrecision: { flag: "--target-precision", kind: "map", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },
   targetRecall: { flag: "--target-recall", kind: "map", default: {}, description: "label=R: threshold reaching recall R on validation" },
+  actions: { flag: "--action", kind: "actions", default: {}, description: "label=block|review|route:<destination>: what a label's rule does (default block for precision targets, review for recall-only targets)" },
+  reviewBelow: { flag: "--review-below", kind: "float", min: 0, max: 1, default: 0, description: "send texts whose top score is below this to review (0 = off)" },
   calibrate: { flag: "--calibrate", kind: "boolean", default: true, description: "fit temperature scaling on validation (--no-calibrate to skip)" },
 };
 
@@ -131,6 +137,15 @@ export function parseSetting<K extends keyof BuildSettings>(key: K, raw: unknown
       if (typeof raw === "boolean") return raw as BuildSettings[K];
       if (raw === "true" || raw === "false") return (raw === "true") as BuildSettings[K];
       return fail("true or false");
+    }
+    case "actions": {
+      const entries: Record<string, string> = {};
+      const pairs = typeof raw === "object" && raw !== null && !Array.isArray(raw) ? Object.entries(raw) : String(raw).split(",").map((part) => part.split("=").map((x) => x.trim()));
+      for (const [label, action] of pairs as [string, unknown][]) {
+        if (!label || typeof action !== "string" || !/^(block|review|route:.+)$/.test(action)) fail('label=block, label=review or label=route:<destination>');
+        entries[label] = action as string;
+      }
+      return entries as BuildSettings[K];
     }
     case "map": {
       const entries: Record<string, number> = {};

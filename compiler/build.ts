@@ -157,7 +157,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
     }
     const calibratedScores = settings.calibrate && head !== "tree" ? scoreTexts(loadModel(writeModel(compiled.contents)), validationTexts) : scored;
     if (head === "sigmoid") thresholds = labels.map(() => 0.5);
-    const chosen = choosePolicy(calibratedScores, validation, labels, settings.targetPrecision, settings.targetRecall, warnings);
+    const chosen = choosePolicy(calibratedScores, validation, labels, settings.targetPrecision, settings.targetRecall, warnings, settings.actions, settings.reviewBelow);
     policy = chosen.policy;
     policyReport = chosen.report;
     compiled.contents.header.policy = policy;

@@ -8,7 +8,7 @@ import type { LabelledText, ScoredSet } from "../evaluate.ts";
 import { precisionRecallCurve, thresholdForTargetPrecision, thresholdForTargetRecall } from "../metrics/index.ts";
 
 export interface PolicyReport {
-  [label: string]: { action: string; threshold: number; reviewFrom: number | null; precision: number; recall: number; reviewShare: number };
+  [label: string]: { action: string; routeTo?: string; threshold: number; reviewFrom: number | null; precision: number; recall: number; reviewShare: number };
 }
 
 /** Builds the policy from the targets; unreachable targets become warnings, not rules. */
@@ -19,9 +19,12 @@ export function choosePolicy(
   targetPrecision: Record<string, number>,
   targetRecall: Record<string, number>,
   warnings: string[],
+  actions: Record<string, string> = {},
+  reviewBelow = 0,
 ): { policy: Policy | null; report: PolicyReport | null } {
   const wanted = new Set([...Object.keys(targetPrecision), ...Object.keys(targetRecall)]);
-  if (wanted.size === 0) return { policy: null, report: null };
+  for (const label of Object.keys(actions)) if (!wanted.has(label)) warnings.push(`policy: --action ${label}=${actions[label]} has no --target-precision or --target-recall for "${label}", so no rule uses it`);
+  if (wanted.size === 0 && reviewBelow <= 0) return { policy: null, report: null };
   const rules: PolicyRule[] = [];
   const report: PolicyReport = {};
   const k = scored.labelCount;
@@ -48,8 +51,10 @@ export function choosePolicy(
       else if (threshold !== null && point.threshold < threshold) reviewFrom = point.threshold;
     }
     if (threshold === null) continue;
-    const action = targetPrecision[label] !== undefined ? "block" : "review";
+    const requested = actions[label] ?? (targetPrecision[label] !== undefined ? "block" : "review");
+    const action = requested.startsWith("route:") ? "route" : (requested as "block" | "review");
     const rule: PolicyRule = { label, action, threshold, target: {} };
+    if (action === "route") rule.routeTo = requested.slice("route:".length);
     if (reviewFrom !== null) rule.reviewFrom = reviewFrom;
     if (targetPrecision[label] !== undefined) (rule.target as Record<string, number>).precision = targetPrecision[label];
     if (targetRecall[label] !== undefined) (rule.target as Record<string, number>).recall = targetRecall[label];
@@ -61,11 +66,12 @@ export function choosePolicy(
       if (scores[i] >= threshold) {
         fired++;
         if (positives[i]) truePositives++;
+        if (action === "review") review++;
       } else if (reviewFrom !== null && scores[i] >= reviewFrom) review++;
     }
     const positiveCount = positives.reduce((a, b) => a + b, 0);
     report[label] = {
-      action,
+      action: requested,
       threshold,
       reviewFrom,
       precision: fired > 0 ? truePositives / fired : 0,
@@ -73,5 +79,8 @@ export function choosePolicy(
       reviewShare: scores.length > 0 ? review / scores.length : 0,
     };
   }
-  return rules.length > 0 ? { policy: { rules }, report } : { policy: null, report: null };
+  if (rules.length === 0 && reviewBelow <= 0) return { policy: null, report: null };
+  const policy: Policy = { rules };
+  if (reviewBelow > 0) policy.uncertainBelow = reviewBelow;
+  return { policy, report };
 }

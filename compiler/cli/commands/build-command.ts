@@ -11,7 +11,7 @@ import { DATA_FLAGS, readData, sha256OfFile } from "../read-data.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const SETTING_FLAGS: Record<string, FlagSpec> = Object.fromEntries(
-  Object.values(BUILD_SETTINGS).map((spec) => [spec.flag, { takesValue: spec.kind !== "boolean", repeatable: spec.kind === "map", description: spec.description }]),
+  Object.values(BUILD_SETTINGS).map((spec) => [spec.flag, { takesValue: spec.kind !== "boolean", repeatable: spec.kind === "map" || spec.kind === "actions", description: spec.description }]),
 );
 
 export const BUILD_FLAGS: Record<string, FlagSpec> = {
@@ -90,8 +90,8 @@ function settingsFromArgs(args: ReturnType<typeof parseArgs>): BuildSettings {
     }
     const values = args.values.get(spec.flag);
     if (!values) continue;
-    if (spec.kind === "map") {
-      const merged: Record<string, number> = {};
+    if (spec.kind === "map" || spec.kind === "actions") {
+      const merged: Record<string, unknown> = {};
       for (const value of values) Object.assign(merged, parseSetting(key as "targetPrecision", value, spec.flag));
       settings[key] = merged;
     } else settings[key] = parseSetting(key as keyof BuildSettings, values[values.length - 1], spec.flag);

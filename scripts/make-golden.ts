@@ -1,0 +1,19 @@
+// Writes test/fixtures/golden/tiny.sluice, the golden model file pinned by
+// test/runtime/golden-model.test.ts. Run only when the format version changes:
+//   npm run golden
+import { writeFileSync } from "node:fs";
+import { build } from "../compiler/build.ts";
+import { defaultBuildSettings } from "../compiler/build-settings.ts";
+
+const examples = [
+  { text: "refund my payment please", labels: ["billing"] },
+  { text: "charged twice on my card", labels: ["billing"] },
+  { text: "invoice amount is wrong", labels: ["billing"] },
+  { text: "where is my parcel", labels: ["shipping"] },
+  { text: "parcel tracking has not moved", labels: ["shipping"] },
+  { text: "delivery is late again", labels: ["shipping"] },
+];
+const settings = { ...defaultBuildSettings(), dims: 4, hashBits: 12, charSpan: [0, 0] as [number, number], epochs: 20, holdout: 0, calibrate: false, minDocs: 1, fineTuneEpochs: 1 };
+const { bytes } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z", dataName: "golden-inline" });
+writeFileSync(new URL("../test/fixtures/golden/tiny.sluice", import.meta.url), bytes);
+console.log(`wrote test/fixtures/golden/tiny.sluice (${bytes.length} bytes)`);
