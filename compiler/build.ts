@@ -17,11 +17,11 @@ import { dequantizeRows, quantizeRows } from "./compile/quantize.ts";
 import { sectionSizes, writeModel, type ModelContents } from "./compile/write-model.ts";
 import { evaluateModel, scoreTexts, type LabelledText } from "./evaluate.ts";
 import { createDraft, type Draft } from "./train/draft.ts";
-import { buildVocabulary, encodeTexts, inverseDocumentFrequency, mapToRows, type EncodedExamples } from "./train/encode.ts";
+import { encodeTexts, inverseDocumentFrequency } from "./train/encode.ts";
+import { memorySource, type TrainingSource } from "./train/training-source.ts";
 import { createRandom } from "./train/random.ts";
 import { stratifiedSplit } from "./train/split.ts";
-import { trainDraft, type TrainProgress } from "./train/train-draft.ts";
-import { trainParallel } from "./train/train-parallel.ts";
+import type { TrainProgress } from "./train/train-draft.ts";
 import { TOOL_VERSION } from "./version.ts";
 
 /** Above this many labels `--head auto` picks the tree head (measured: see README, "Scale"). */
@@ -79,7 +79,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   const say = (message: string) => input.onMessage?.(message);
   const labels = collectLabels(input.examples);
   if (labels.length === 0) throw new Error("no labelled examples to train on");
-  const { head, reason: headReason } = chooseHead(settings.head, input.examples, labels.length);
+  const { head, reason: headReason } = chooseHead(settings.head, input.examples.some((e) => e.labels.length > 1), labels.length);
   if (head !== "sigmoid" && labels.length < 2) throw new Error(`only one label ("${labels[0]}") in the data: a ${head} head needs at least two (use --head sigmoid for one yes/no label)`);
   say(`head: ${head} (${headReason})`);
 
@@ -98,11 +98,31 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   };
   const featurizer = createFeaturizer(featurizerSettings);
   const encoded = encodeTexts(featurizer, train.map((e) => e.text), train.map((e) => e.labels.map((l) => labelIndex.get(l) as number)));
-  const vocabulary = buildVocabulary(encoded, settings.hashBits, settings.minDocs);
-  const trainingRows = mapToRows(encoded, vocabulary.slots, settings.hashBits);
+  const source = memorySource(encoded, labels.length, settings.hashBits);
+  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings });
+}
+
+/** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
+export interface SourceBuild {
+  input: Omit<BuildInput, "examples"> & { examples?: readonly LabelledText[]; exampleCount?: number };
+  source: TrainingSource;
+  labels: string[];
+  head: HeadKind;
+  headReason: string;
+  validation: LabelledText[];
+  featurizerSettings: FeaturizerSettings;
+  warnings: string[];
+}
+
+/** Train the draft from a source, then compile, calibrate, choose the policy and write. */
+export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint8Array; report: BuildReport }> {
+  const { input, source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
+  const { settings } = input;
+  const say = (message: string) => input.onMessage?.(message);
+  const labelIndex = new Map(labels.map((label, i) => [label, i]));
+  const vocabulary = source.vocabulary(settings.hashBits, settings.minDocs);
   const rowWeights = settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null;
-  const labelCounts = countLabels(trainingRows, labels.length);
-  const tree = head === "tree" ? huffmanTree(labelCounts) : null;
+  const tree = head === "tree" ? huffmanTree(source.labelCounts) : null;
   const paths = tree ? treePaths(tree, labels.length) : null;
   const random = createRandom(settings.seed);
   const draft = createDraft({
@@ -116,12 +136,10 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
     random,
     shared: settings.threads > 1,
   });
-  say(`training: ${train.length} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
+  say(`training: ${source.count} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
   const trainSettings = { epochs: settings.epochs, learningRate: settings.learningRate, seed: settings.seed };
-  const trained =
-    settings.threads > 1
-      ? await trainParallel(draft, trainingRows, trainSettings, settings.threads, paths, (p) => input.onProgress?.("train", p))
-      : trainDraft(draft, trainingRows, trainSettings, { paths, random, onProgress: (p) => input.onProgress?.("train", p) });
+  const trained = await source.train(draft, trainSettings, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
+  const train = { length: source.count };
 
   const header = baseHeader(input, head, labels, featurizerSettings, train.length);
   const validationTexts = validation.map((e) => e.text);
@@ -133,14 +151,14 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
 
   // Compile: prune to the budget, quantize, retrain the output layer on what survives.
   const importance = rowImportance(draft);
-  const compile = (keep: number) => compileDraft(draft, importance, keep, encoded, settings, header, paths);
+  const compile = (keep: number) => compileDraft(draft, importance, keep, source, settings, header, paths);
   let keep = settings.keepFeatures > 0 ? Math.min(settings.keepFeatures, draft.slots.length) : draft.slots.length;
-  let compiled = compile(keep);
+  let compiled = await compile(keep);
   if (settings.maxBytes > 0) {
     const fit = fitRowsToBudget(draft, importance, settings, header, keep);
     if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
     keep = fit;
-    compiled = compile(keep);
+    compiled = await compile(keep);
   }
 
   // Calibrate and choose the policy on the validation split, with the compiled model.
@@ -180,7 +198,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
     // The metrics made the header a little longer: drop rows until it fits, keeping the measured metrics honest.
     while (bytes.length > settings.maxBytes && keep > 0) {
       keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings))));
-      const smaller = compile(keep);
+      const smaller = await compile(keep);
       smaller.contents.header = { ...compiled.contents.header };
       compiled = smaller;
       const reloaded = loadModel(writeModel(compiled.contents));
@@ -220,9 +238,10 @@ function collectLabels(examples: readonly LabelledText[]): string[] {
   return [...labels].sort();
 }
 
-function chooseHead(choice: BuildSettings["head"], examples: readonly LabelledText[], labelCount: number): { head: HeadKind; reason: string } {
+/** The head for `--head auto`: sigmoid for several labels per example, tree for many labels. */
+export function chooseHead(choice: BuildSettings["head"], severalLabels: boolean, labelCount: number): { head: HeadKind; reason: string } {
   if (choice !== "auto") return { head: choice, reason: "chosen by --head" };
-  if (examples.some((e) => e.labels.length > 1)) return { head: "sigmoid", reason: "some examples carry several labels" };
+  if (severalLabels) return { head: "sigmoid", reason: "some examples carry several labels" };
   if (labelCount > TREE_HEAD_LABEL_THRESHOLD) return { head: "tree", reason: `${labelCount} labels, more than ${TREE_HEAD_LABEL_THRESHOLD}` };
   return { head: "softmax", reason: `one label per example, ${labelCount} labels` };
 }
@@ -239,15 +258,9 @@ function splitExamples(input: BuildInput, labelIndex: Map<string, number>, warni
   return { train: Array.from(split.train, (i) => input.examples[i]), validation: Array.from(split.validation, (i) => input.examples[i]) };
 }
 
-function countLabels(data: EncodedExamples, labelCount: number): Float64Array {
-  const counts = new Float64Array(labelCount);
-  for (let i = 0; i < data.labelList.length; i++) counts[data.labelList[i]]++;
-  return counts;
-}
-
 type HeaderBase = ModelContents["header"];
 
-function baseHeader(input: BuildInput, head: HeadKind, labels: string[], featurizer: FeaturizerSettings, trainCount: number): HeaderBase {
+function baseHeader(input: SourceBuild["input"], head: HeadKind, labels: string[], featurizer: FeaturizerSettings, trainCount: number): HeaderBase {
   const s = input.settings;
   return {
     labels,
@@ -267,7 +280,7 @@ function baseHeader(input: BuildInput, head: HeadKind, labels: string[], featuri
       data: input.dataName ?? null,
       fields: input.fields ?? null,
       dataSha256: input.dataSha256 ?? null,
-      examples: input.examples.length,
+      examples: input.examples?.length ?? input.exampleCount ?? null,
       trainExamples: trainCount,
       settings: { ...s },
     },
@@ -305,7 +318,7 @@ function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float
 }
 
 /** Prune to `keep` rows, quantize them, retrain the output layer on exactly those rows. */
-function compileDraft(draft: Draft, importance: Float64Array, keep: number, encoded: EncodedExamples, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null) {
+async function compileDraft(draft: Draft, importance: Float64Array, keep: number, source: TrainingSource, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null) {
   const pruned = subsetDraft(draft, selectRows(importance, keep));
   let frozen: { values: Int8Array; scales: Float32Array } | null = null;
   if (settings.precision === "int8") {
@@ -313,8 +326,7 @@ function compileDraft(draft: Draft, importance: Float64Array, keep: number, enco
     pruned.rows = dequantizeRows(frozen.values, frozen.scales, pruned.dims);
   }
   if (settings.fineTuneEpochs > 0) {
-    const data = mapToRows(encoded, pruned.slots, settings.hashBits);
-    trainDraft(pruned, data, { epochs: settings.fineTuneEpochs, learningRate: settings.learningRate * 0.2, seed: settings.seed + 1 }, { paths, trainRows: false });
+    await source.train(pruned, { epochs: settings.fineTuneEpochs, learningRate: settings.learningRate * 0.2, seed: settings.seed + 1 }, { paths, trainRows: false, threads: 1 });
   }
   return { contents: contentsOf(pruned, header, settings.precision, frozen) };
 }

@@ -19,12 +19,12 @@ export interface FieldDefaults {
   labelField: string;
 }
 
-/** Reads every example of `path` ("-" = stdin); prints the read report to stderr. */
-export async function readData(path: string, args: ParsedArgs, defaults: FieldDefaults, requireLabels: boolean, quiet: boolean): Promise<{ examples: Example[]; report: ReadReport }> {
+/** Reader options from the data flags. */
+export function readOptionsFrom(args: ParsedArgs, defaults: FieldDefaults, requireLabels: boolean) {
   const textFieldValue = valueOf(args, "--text-field");
   const format = valueOf(args, "--format");
   if (format !== undefined && !["csv", "tsv", "jsonl"].includes(format)) throw new Error(`--format: expected csv, tsv or jsonl, got "${format}"`);
-  const options = {
+  return {
     textFields: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()).filter(Boolean) : defaults.textFields,
     labelField: valueOf(args, "--label-field") ?? defaults.labelField,
     labelSep: valueOf(args, "--label-sep"),
@@ -32,6 +32,11 @@ export async function readData(path: string, args: ParsedArgs, defaults: FieldDe
     requireLabels,
     skipBad: args.switches.get("--skip-bad") === true,
   };
+}
+
+/** Reads every example of `path` ("-" = stdin); prints the read report to stderr. */
+export async function readData(path: string, args: ParsedArgs, defaults: FieldDefaults, requireLabels: boolean, quiet: boolean): Promise<{ examples: Example[]; report: ReadReport }> {
+  const options = readOptionsFrom(args, defaults, requireLabels);
   const report = createReadReport(path);
   const examples: Example[] = [];
   const source = path === "-" ? readExamplesFromText("stdin", await readStdin(), { ...options, format: options.format ?? "jsonl" }, report) : readExamples(path, options, report);

@@ -40,6 +40,8 @@ export interface TrainOptions {
   schedule?: { offset: number; total: number };
   /** Train on these example indexes only (default: all). */
   subset?: Int32Array;
+  /** Called every 256 steps (threads merge their output layers here). */
+  onSync?: () => void;
 }
 
 const REPORT_EVERY = 4096;
@@ -85,6 +87,7 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
       reportLoss += loss;
       reportCount++;
       step++;
+      if (options.onSync && (step & 255) === 0) options.onSync();
       if (options.onProgress && reportCount === REPORT_EVERY) {
         const seconds = (performance.now() - started) / 1000;
         const done = step / (settings.epochs * count);
@@ -101,6 +104,7 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
       }
     }
   }
+  options.onSync?.();
   const seconds = (performance.now() - started) / 1000;
   return {
     seconds,

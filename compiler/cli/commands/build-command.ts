@@ -1,13 +1,15 @@
 // `sluice build <data> --out model.sluice`: read → train → prune → quantize → verify → write.
 
-import { readFileSync } from "node:fs";
+import { readFileSync, statSync } from "node:fs";
 import { basename } from "node:path";
 import { build, type BuildReport } from "../../build.ts";
 import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, type BuildSettings } from "../../build-settings.ts";
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
-import { DATA_FLAGS, readData, sha256OfFile } from "../read-data.ts";
+import { DATA_FLAGS, describeReadReport, readData, readOptionsFrom, sha256OfFile } from "../read-data.ts";
+import { buildFromFile } from "../../build-from-file.ts";
+import { createReadReport } from "../../read/index.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const SETTING_FLAGS: Record<string, FlagSpec> = Object.fromEntries(
@@ -23,7 +25,11 @@ export const BUILD_FLAGS: Record<string, FlagSpec> = {
   "--json": { takesValue: false, description: "print the build report as one JSON object on stdout" },
   "--quiet": { takesValue: false, description: "no progress and no messages on stderr" },
   "--force": { takesValue: false, description: "replace the output file if it exists" },
+  "--on-disk": { takesValue: false, description: "stream the data through shards on disk (bounded memory; automatic above 256 MiB)" },
 };
+
+/** Data files above this size are built on disk (bounded memory) without being asked. */
+const ON_DISK_ABOVE_BYTES = 256 * 1024 * 1024;
 
 /** Runs the build command; returns the exit code. */
 export async function buildCommand(argv: string[]): Promise<number> {
@@ -39,12 +45,10 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const out = valueOf(args, "--out") ?? "model.sluice";
   const force = args.switches.get("--force") === true;
   const fields = { textFields: ["text"], labelField: "label" };
-  const { examples } = await readData(dataPath, args, fields, true, quiet);
   const validationPath = valueOf(args, "--validation");
   const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
   const textFieldValue = valueOf(args, "--text-field");
-  const { bytes, report } = await build({
-    examples,
+  const common = {
     validation,
     settings,
     buildTime: buildTime(),
@@ -53,7 +57,19 @@ export async function buildCommand(argv: string[]): Promise<number> {
     onProgress: createProgressBar(!quiet && !json),
     onMessage: say,
     fields: { text: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()) : ["text"], label: valueOf(args, "--label-field") ?? "label" },
-  });
+  };
+  const onDisk = args.switches.get("--on-disk") === true || statSync(dataPath).size > ON_DISK_ABOVE_BYTES;
+  let result: Awaited<ReturnType<typeof build>>;
+  if (onDisk) {
+    if (settings.threads > 1) say("note: building on disk trains with one thread");
+    const readReport = createReadReport(dataPath);
+    result = await buildFromFile({ ...common, path: dataPath, readOptions: readOptionsFrom(args, fields, true), readReport, validation });
+    if (!quiet) describeReadReport(readReport);
+  } else {
+    const { examples } = await readData(dataPath, args, fields, true, quiet);
+    result = await build({ ...common, examples });
+  }
+  const { bytes, report } = result;
   clearProgressLine();
   for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
   writeFileAtomic(out, bytes, { force });

@@ -1,0 +1,214 @@
+// Training data larger than memory: examples are featurized once and appended to shard
+// files on disk; every epoch visits the shards in a fresh random order and shuffles inside
+// each one, so memory holds one shard at a time (bounded) and a label-sorted input file
+// still trains well. Shard record layout, u32 little-endian words:
+//   labelCount | featureCount | tokenCount | labels (first-seen ids) … | slots …
+
+import { closeSync, mkdtempSync, openSync, readFileSync, rmSync, writeSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import type { Draft } from "./draft.ts";
+import type { EncodedExamples, Vocabulary } from "./encode.ts";
+import { createRandom, shuffleInPlace } from "./random.ts";
+import type { SourceTrainOptions, TrainingSource } from "./training-source.ts";
+import { trainDraft, type TrainResult, type TrainSettings } from "./train-draft.ts";
+
+const BUFFER_WORDS = 1 << 18; // 1 MiB write buffer per shard
+
+/** Appends encoded examples to shards and counts document frequencies as it goes. */
+export class ShardWriter {
+  readonly directory: string;
+  private readonly files: number[] = [];
+  private readonly buffers: Uint32Array[] = [];
+  private readonly used: Int32Array;
+  private readonly random;
+  private readonly frequency: Uint32Array;
+  private readonly lastSeen: Int32Array;
+  count = 0;
+  tokenTotal = 0;
+  /** Examples per first-seen label id. */
+  labelCounts: number[] = [];
+
+  constructor(shardCount: number, hashBits: number, seed: number, parent = tmpdir()) {
+    this.directory = mkdtempSync(join(parent, "sluice-shards-"));
+    for (let i = 0; i < shardCount; i++) {
+      this.files.push(openSync(join(this.directory, `shard-${i}.bin`), "w"));
+      this.buffers.push(new Uint32Array(BUFFER_WORDS));
+    }
+    this.used = new Int32Array(shardCount);
+    this.random = createRandom(seed ^ 0x1f83d9ab);
+    this.frequency = new Uint32Array(2 ** hashBits);
+    this.lastSeen = new Int32Array(2 ** hashBits).fill(-1);
+  }
+
+  /** Adds one example (label ids in first-seen numbering, feature slots, token count). */
+  add(labels: readonly number[], slots: Uint32Array, slotCount: number, tokens: number): void {
+    const example = this.count++;
+    this.tokenTotal += tokens;
+    for (const label of labels) this.labelCounts[label] = (this.labelCounts[label] ?? 0) + 1;
+    for (let f = 0; f < slotCount; f++) {
+      const slot = slots[f];
+      if (this.lastSeen[slot] !== example) {
+        this.lastSeen[slot] = example;
+        this.frequency[slot]++;
+      }
+    }
+    const shard = Math.floor(this.random.next() * this.files.length);
+    const words = 3 + labels.length + slotCount;
+    if (this.used[shard] + words > BUFFER_WORDS) this.flush(shard);
+    if (words > BUFFER_WORDS) {
+      const big = new Uint32Array(words);
+      this.fill(big, 0, labels, slots, slotCount, tokens);
+      writeSync(this.files[shard], new Uint8Array(big.buffer));
+      return;
+    }
+    this.fill(this.buffers[shard], this.used[shard], labels, slots, slotCount, tokens);
+    this.used[shard] += words;
+  }
+
+  private fill(target: Uint32Array, at: number, labels: readonly number[], slots: Uint32Array, slotCount: number, tokens: number): void {
+    target[at] = labels.length;
+    target[at + 1] = slotCount;
+    target[at + 2] = tokens;
+    for (let l = 0; l < labels.length; l++) target[at + 3 + l] = labels[l];
+    target.set(slots.subarray(0, slotCount), at + 3 + labels.length);
+  }
+
+  private flush(shard: number): void {
+    if (this.used[shard] === 0) return;
+    writeSync(this.files[shard], new Uint8Array(this.buffers[shard].buffer, 0, this.used[shard] * 4));
+    this.used[shard] = 0;
+  }
+
+  /** Removes the shard directory (safe to call more than once). */
+  dispose(): void {
+    for (const fd of this.files.splice(0)) {
+      try {
+        closeSync(fd);
+      } catch {
+        // already closed by finish()
+      }
+    }
+    rmSync(this.directory, { recursive: true, force: true });
+  }
+
+  /**
+   * Closes the shards and returns a training source over them. `labelOrder[firstSeenId]` is
+   * the label's id in the sorted label list.
+   */
+  finish(labelOrder: Int32Array): TrainingSource & { dispose(): void } {
+    const paths = this.files.map((_, i) => join(this.directory, `shard-${i}.bin`));
+    for (let shard = 0; shard < this.files.length; shard++) {
+      this.flush(shard);
+      closeSync(this.files[shard]);
+    }
+    this.files.length = 0;
+    const labelCounts = new Float64Array(labelOrder.length);
+    this.labelCounts.forEach((n, firstSeen) => (labelCounts[labelOrder[firstSeen]] += n ?? 0));
+    return diskSource(paths, this.directory, this.count, this.tokenTotal, labelCounts, this.frequency, labelOrder);
+  }
+}
+
+function diskSource(paths: string[], directory: string, count: number, tokenTotal: number, labelCounts: Float64Array, frequency: Uint32Array, labelOrder: Int32Array): TrainingSource & { dispose(): void } {
+  let rowOfSlot: Int32Array | null = null;
+  let rowSlots: Uint32Array | null = null;
+  return {
+    count,
+    tokenTotal,
+    labelCounts,
+    vocabulary(hashBits: number, minDocs: number): Vocabulary {
+      let kept = 0;
+      for (let slot = 0; slot < frequency.length; slot++) if (frequency[slot] >= minDocs && frequency[slot] > 0) kept++;
+      const slots = new Uint32Array(kept);
+      const documentFrequency = new Uint32Array(kept);
+      let row = 0;
+      for (let slot = 0; slot < frequency.length; slot++) {
+        if (frequency[slot] >= minDocs && frequency[slot] > 0) {
+          slots[row] = slot;
+          documentFrequency[row++] = frequency[slot];
+        }
+      }
+      void hashBits;
+      return { slots, documentFrequency, documentCount: count };
+    },
+    async train(draft: Draft, settings: TrainSettings, options: SourceTrainOptions): Promise<TrainResult> {
+      if (rowSlots !== draft.slots) {
+        rowOfSlot = new Int32Array(frequency.length).fill(-1);
+        for (let row = 0; row < draft.slots.length; row++) rowOfSlot[draft.slots[row]] = row;
+        rowSlots = draft.slots;
+      }
+      const random = options.random ?? createRandom(settings.seed);
+      const total = settings.epochs * count;
+      const started = performance.now();
+      let step = 0;
+      let lossSum = 0;
+      let lastEpochLoss = 0;
+      for (let epoch = 0; epoch < settings.epochs; epoch++) {
+        const order = Int32Array.from(paths, (_, i) => i);
+        shuffleInPlace(order, random);
+        lastEpochLoss = 0;
+        for (const shard of order) {
+          const chunk = readShard(paths[shard], rowOfSlot as Int32Array, labelOrder);
+          if (chunk.count === 0) continue;
+          const before = step;
+          const result = trainDraft(draft, chunk, { ...settings, epochs: 1 }, {
+            paths: options.paths,
+            trainRows: options.trainRows,
+            random,
+            schedule: { offset: step, total },
+            onProgress: options.onProgress
+              ? (p) => options.onProgress?.({ ...p, epoch: epoch + 1, epochs: settings.epochs, done: (before + p.done * chunk.count) / total, etaSeconds: 0 })
+              : undefined,
+          });
+          step += chunk.count;
+          lossSum += result.finalLoss * chunk.count;
+          lastEpochLoss += result.finalLoss * chunk.count;
+        }
+      }
+      void lossSum;
+      const seconds = (performance.now() - started) / 1000;
+      return { seconds, tokensPerSecond: (settings.epochs * tokenTotal) / Math.max(seconds, 1e-9), finalLoss: count > 0 ? lastEpochLoss / count : 0 };
+    },
+    dispose() {
+      rmSync(directory, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Decodes one shard into memory, mapping slots to rows (dropping slots without one). */
+function readShard(path: string, rowOfSlot: Int32Array, labelOrder: Int32Array): EncodedExamples {
+  const bytes = readFileSync(path);
+  const words = new Uint32Array(bytes.buffer, bytes.byteOffset, bytes.byteLength >>> 2);
+  let examples = 0;
+  let featureWords = 0;
+  let labelWords = 0;
+  for (let at = 0; at < words.length; at += 3 + words[at] + words[at + 1]) {
+    examples++;
+    labelWords += words[at];
+    featureWords += words[at + 1];
+  }
+  const offsets = new Uint32Array(examples + 1);
+  const features = new Uint32Array(featureWords);
+  const labelOffsets = new Uint32Array(examples + 1);
+  const labelList = new Int32Array(labelWords);
+  let featureCount = 0;
+  let labelCount = 0;
+  let tokenTotal = 0;
+  let example = 0;
+  for (let at = 0; at < words.length; ) {
+    const labels = words[at];
+    const slots = words[at + 1];
+    tokenTotal += words[at + 2];
+    for (let l = 0; l < labels; l++) labelList[labelCount++] = labelOrder[words[at + 3 + l]];
+    const slotStart = at + 3 + labels;
+    for (let f = 0; f < slots; f++) {
+      const row = rowOfSlot[words[slotStart + f]];
+      if (row >= 0) features[featureCount++] = row;
+    }
+    example++;
+    offsets[example] = featureCount;
+    labelOffsets[example] = labelCount;
+    at = slotStart + slots;
+  }
+  return { count: examples, offsets, features, labelOffsets, labelList, tokenTotal };
+}
