@@ -6,6 +6,11 @@
 //
 // Section layout (i32): for each inner node in order, its first child then its second.
 
+/** Computes one inner node's (temperature-scaled) logit on demand. */
+export interface NodeScorer {
+  nodeLogit(inner: number): number;
+}
+
 /** Read-only view over the tree section. */
 export class LabelTree {
   readonly labelCount: number;
@@ -63,6 +68,69 @@ export class LabelTree {
       probability[depth] = p * (1 - toFirst);
       depth++;
     }
+  }
+
+  /**
+   * The `k` most probable labels by best-first search: nodes are expanded in order of
+   * their path probability, so only the inner nodes on the way to the winners are scored
+   * (about k · log2 K of them for a balanced tree) instead of all K − 1.
+   * Writes labels and probabilities, best first; returns how many were found.
+   */
+  topLabels(k: number, scorer: NodeScorer, labels: Int32Array, probabilities: Float64Array): number {
+    const heapNodes = this.stack;
+    const heapProbability = this.stackProbability;
+    this.heapSize = 0;
+    this.pushHeap(this.root, 1);
+    let found = 0;
+    while (this.heapSize > 0 && found < k) {
+      const node = heapNodes[0];
+      const p = heapProbability[0];
+      // Pop: move the last entry to the top and sift it down.
+      const size = --this.heapSize;
+      const lastNode = heapNodes[size];
+      const lastProbability = heapProbability[size];
+      let i = 0;
+      while (true) {
+        let child = 2 * i + 1;
+        if (child >= size) break;
+        if (child + 1 < size && heapProbability[child + 1] > heapProbability[child]) child++;
+        if (heapProbability[child] <= lastProbability) break;
+        heapNodes[i] = heapNodes[child];
+        heapProbability[i] = heapProbability[child];
+        i = child;
+      }
+      heapNodes[i] = lastNode;
+      heapProbability[i] = lastProbability;
+      if (node < this.labelCount) {
+        labels[found] = node;
+        probabilities[found] = p;
+        found++;
+        continue;
+      }
+      const inner = node - this.labelCount;
+      const toFirst = sigmoid(scorer.nodeLogit(inner));
+      this.pushHeap(this.children[2 * inner], p * toFirst);
+      this.pushHeap(this.children[2 * inner + 1], p * (1 - toFirst));
+    }
+    return found;
+  }
+
+  private heapSize = 0;
+
+  /** Max-heap insert on the scratch arrays (no allocation). */
+  private pushHeap(node: number, p: number): void {
+    const heapNodes = this.stack;
+    const heapProbability = this.stackProbability;
+    let i = this.heapSize++;
+    while (i > 0) {
+      const parent = (i - 1) >> 1;
+      if (heapProbability[parent] >= p) break;
+      heapNodes[i] = heapNodes[parent];
+      heapProbability[i] = heapProbability[parent];
+      i = parent;
+    }
+    heapNodes[i] = node;
+    heapProbability[i] = p;
   }
 
   /** Inner nodes on the path from the root to `label`, each with the direction taken (+1 first, -1 second). */

@@ -9,7 +9,7 @@ import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featuri
 import type { ModelHeader } from "./model-header.ts";
 import { decideFromScores, type Decision } from "./policy.ts";
 import type { SlotIndex } from "./slot-index.ts";
-import { LabelTree } from "./label-tree.ts";
+import { LabelTree, type NodeScorer } from "./label-tree.ts";
 
 /** The numeric parts of a model, as views over the file. */
 export interface ModelParts {
@@ -90,7 +90,7 @@ export interface ModelMeta {
   provenance: Record<string, unknown>;
 }
 
-export class Model {
+export class Model implements NodeScorer {
   readonly meta: ModelMeta;
   readonly labels: readonly string[];
   private readonly parts: ModelParts;
@@ -100,6 +100,8 @@ export class Model {
   private readonly logits: Float64Array;
   private readonly scores: Float32Array;
   private readonly tree: LabelTree | null;
+  private readonly topLabelScratch: Int32Array;
+  private readonly topProbabilityScratch: Float64Array;
   private lastTokenCount = 0;
   private lastTruncated = false;
   private lastKnown = 0;
@@ -114,6 +116,8 @@ export class Model {
     this.logits = new Float64Array(header.outputCount);
     this.scores = new Float32Array(header.labels.length);
     this.tree = parts.tree ? new LabelTree(parts.tree, header.labels.length) : null;
+    this.topLabelScratch = new Int32Array(header.labels.length);
+    this.topProbabilityScratch = new Float64Array(header.labels.length);
     this.meta = {
       version: parts.version,
       bytes: parts.byteLength,
@@ -142,6 +146,7 @@ export class Model {
     if (options.top !== undefined && (!Number.isInteger(options.top) || options.top < 1)) {
       throw new InputError("bad-option", `top must be a positive integer, got ${String(options.top)}`);
     }
+    if (this.tree !== null && (options.top ?? 1) < this.labels.length) return this.classifyTree(text, options.top ?? 1, minScore);
     const scores = this.scoreText(text);
     const thresholds = this.parts.header.thresholds;
     const useThresholds = options.top === undefined && this.parts.header.head === "sigmoid";
@@ -206,6 +211,34 @@ export class Model {
   }
 
   // ---- scoring ---------------------------------------------------------------------
+
+  /** Tree head, top k: best-first search, scoring only the inner nodes it visits. */
+  private classifyTree(text: string, top: number, minScore: number): LabelScore[] {
+    const buffer = this.buffer;
+    this.featurizer.featurize(text, buffer);
+    this.lastTokenCount = buffer.tokenCount;
+    this.lastTruncated = buffer.truncated;
+    this.computeHidden(buffer.slots, buffer.count);
+    const found = (this.tree as LabelTree).topLabels(top, this, this.topLabelScratch, this.topProbabilityScratch);
+    const result: LabelScore[] = [];
+    for (let i = 0; i < found; i++) {
+      const score = Math.fround(this.topProbabilityScratch[i]);
+      if (score >= minScore) result.push({ label: this.labels[this.topLabelScratch[i]], score });
+    }
+    return result;
+  }
+
+  /** One output row's temperature-scaled logit from the current hidden vector (tree search). */
+  nodeLogit(output: number): number {
+    const { outputWeights, outputScales, outputBias } = this.parts;
+    const dims = this.hidden.length;
+    const hidden = this.hidden;
+    const base = output * dims;
+    let sum = 0;
+    for (let j = 0; j < dims; j++) sum += outputWeights[base + j] * hidden[j];
+    const scale = outputScales === null ? 1 : outputScales[output];
+    return (scale * sum + outputBias[output]) / this.parts.header.calibration.temperature;
+  }
 
   /** Scores of `text` in the shared scratch array (valid until the next call). */
   private scoreText(text: string): Float32Array {
