@@ -52,9 +52,10 @@ function classifyBmp(code: number): number {
   const char = String.fromCharCode(code);
   if (WHITE_SPACE.test(char)) return SPACE;
   if (FORMAT.test(char)) return DROPPED;
+  // Before letters: U+02BC (modifier letter apostrophe) is a letter to Unicode, an apostrophe to readers.
+  if (APOSTROPHES.test(char)) return APOSTROPHE;
   if (LETTER_OR_MARK.test(char)) return LETTER;
   if (DECIMAL_DIGIT.test(char)) return DIGIT;
-  if (APOSTROPHES.test(char)) return APOSTROPHE;
   if (SIGNAL_PUNCTUATION.test(char)) return KEPT_PUNCTUATION;
   if (PICTOGRAPHIC.test(char)) return EMOJI;
   return SEPARATOR;

@@ -129,12 +129,13 @@ export class Featurizer {
     const normalized = normalizeText(text);
     this.tokenize(normalized);
     out.tokenCount = this.tokenTotal;
-    out.truncated = this.tokenTotal >= this.settings.maxTokens && this.hasMoreText;
+    out.truncated = this.hasMoreText;
     this.emitFeatures(out);
   }
 
   // ---- tokenization ----------------------------------------------------------------
 
+  /** Set when a token beyond maxTokens was found: the text was cut (and reading stopped). */
   private hasMoreText = false;
 
   private tokenize(text: string): void {
@@ -142,13 +143,8 @@ export class Featurizer {
     this.wordCharTotal = 0;
     this.hasMoreText = false;
     const length = text.length;
-    const maxTokens = this.settings.maxTokens;
     let i = 0;
-    while (i < length) {
-      if (this.tokenTotal >= maxTokens) {
-        this.hasMoreText = true;
-        return;
-      }
+    while (i < length && !this.hasMoreText) {
       const code = text.charCodeAt(i);
       if (classOf(code) === SPACE) {
         i++;
@@ -198,7 +194,7 @@ export class Featurizer {
     const stream = this.stream;
     stream.reset(this.hostSeed);
     for (let i = hostStart; i < hostEnd; i++) stream.pushCodePoint(lowerAscii(text.charCodeAt(i)));
-    const name = this.withNames ? `[url ${text.slice(hostStart, hostEnd)}]` : "";
+    const name = this.withNames ? `[url ${text.slice(hostStart, hostEnd).toLowerCase()}]` : "";
     this.addToken(URL, stream.digest(), -1, -1, name);
   }
 
@@ -206,7 +202,7 @@ export class Featurizer {
   private tokenizeSpan(text: string, start: number, end: number): void {
     const stream = this.stream;
     let i = start;
-    while (i < end && this.tokenTotal < this.settings.maxTokens) {
+    while (i < end && !this.hasMoreText) {
       const code = text.charCodeAt(i);
       const cls = classOf(code);
       if (cls === LETTER || cls === DIGIT) {
@@ -303,6 +299,10 @@ export class Featurizer {
   }
 
   private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string): void {
+    if (this.tokenTotal >= this.settings.maxTokens) {
+      this.hasMoreText = true; // one token past the limit: the text is cut here
+      return;
+    }
     const index = this.tokenTotal;
     if (index === this.tokenHashes.length) this.growTokens();
     this.tokenHashes[index] = hash;

@@ -67,7 +67,7 @@ export function loadModel(input: Uint8Array | ArrayBuffer): Model {
   const storedChecksum = view.getUint32(length - CHECKSUM_BYTES, true);
   const actualChecksum = crc32(bytes, 0, length - CHECKSUM_BYTES);
   if (storedChecksum !== actualChecksum) {
-    throw new ModelFormatError("checksum", `CRC-32 mismatch: the trailer says ${hex(storedChecksum)}, the bytes give ${hex(actualChecksum)}; the file is corrupt or truncated`, length - CHECKSUM_BYTES);
+    throw new ModelFormatError("checksum", `checksum mismatch (CRC-32): the trailer says ${hex(storedChecksum)}, the bytes give ${hex(actualChecksum)}; the file is corrupt or truncated`, length - CHECKSUM_BYTES);
   }
   let decoded: unknown;
   try {
