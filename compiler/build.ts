@@ -11,6 +11,7 @@ import type { Model } from "../runtime/model.ts";
 import type { BuildSettings } from "./build-settings.ts";
 import { choosePolicy, type PolicyReport } from "./compile/choose-policy.ts";
 import { fitCalibration } from "./compile/calibrate.ts";
+import { chooseSigmoidThresholds } from "./compile/sigmoid-thresholds.ts";
 import { huffmanTree, treePaths } from "./compile/huffman.ts";
 import { rowImportance, selectRows, subsetDraft } from "./compile/prune.ts";
 import { dequantizeRows, quantizeRows } from "./compile/quantize.ts";
@@ -174,7 +175,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
       compiled.contents.header.calibration = { temperature: calibration.temperature };
     }
     const calibratedScores = settings.calibrate && head !== "tree" ? scoreTexts(loadModel(writeModel(compiled.contents)), validationTexts) : scored;
-    if (head === "sigmoid") thresholds = labels.map(() => 0.5);
+    if (head === "sigmoid") thresholds = chooseSigmoidThresholds(calibratedScores, validation, labels);
     const chosen = choosePolicy(calibratedScores, validation, labels, settings.targetPrecision, settings.targetRecall, warnings, settings.actions, settings.reviewBelow);
     policy = chosen.policy;
     policyReport = chosen.report;
