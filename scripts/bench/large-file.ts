@@ -32,7 +32,7 @@ async function writeLargeFile(path: string, targetBytes: number): Promise<number
     const line = `${JSON.stringify({ text: words.join(" "), label: topic })}\n`;
     written += Buffer.byteLength(line);
     lines++;
-    if (!out.write(line)) await new Promise((resolve) => out.once("drain", resolve));
+    if (!out.write(line)) await new Promise<void>((resolve) => out.once("drain", () => resolve()));
   }
   await new Promise<void>((resolve) => out.end(() => resolve()));
   return lines;
