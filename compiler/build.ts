@@ -190,6 +190,8 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   compiled.contents.header.metrics = {
     validationExamples: validation.length,
     draft: roundQuality(draftQuality),
+    draftBytes: draftBytes.length,
+    draftRows: draft.slots.length,
     compiled: roundQuality(compiledQuality),
     ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
     labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
