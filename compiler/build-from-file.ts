@@ -10,6 +10,7 @@ import { NORMALIZATION_VERSION } from "../runtime/normalize.ts";
 import { chooseHead, compileFromSource, type BuildInput, type BuildReport } from "./build.ts";
 import type { LabelledText } from "./evaluate.ts";
 import { readExamples, type ReadOptions, type ReadReport } from "./read/index.ts";
+import { leakWarning, TrainingTextCollector } from "./compile/text-fingerprints.ts";
 import { ShardWriter } from "./train/disk-source.ts";
 import { createRandom } from "./train/random.ts";
 
@@ -56,7 +57,9 @@ export async function buildFromFile(input: FileBuildInput): Promise<{ bytes: Uin
   let ordinal = 0;
   let lastNotice = Date.now();
 
+  const collector = new TrainingTextCollector();
   const addToTraining = (example: LabelledText) => {
+    collector.add(example.text);
     featurizer.featurize(example.text, buffer);
     const ids = example.labels.map((label) => {
       let id = labelIds.get(label);
@@ -104,6 +107,9 @@ export async function buildFromFile(input: FileBuildInput): Promise<{ bytes: Uin
     if (validation.length < validationSource.length) warnings.push(`${validationSource.length - validation.length} validation examples have labels absent from the training data; they are left out of validation`);
     if (validation.length === 0) warnings.push("no validation data: metrics are not measured on held-out data");
     if (validationSeen > MAX_VALIDATION_EXAMPLES) warnings.push(`validation capped at a uniform sample of ${MAX_VALIDATION_EXAMPLES} of ${validationSeen} held-out examples (the rest trained)`);
+    const leaks = collector.findLeaks(validation.map((e) => e.text));
+    const leak = leakWarning(leaks, "validation");
+    if (leak !== null) warnings.push(leak);
     const source = writer.finish(labelOrder);
     try {
       return await compileFromSource({
@@ -115,6 +121,8 @@ export async function buildFromFile(input: FileBuildInput): Promise<{ bytes: Uin
         validation,
         featurizerSettings,
         warnings,
+        leaks,
+        trainFingerprint: settings.fingerprint ? collector.fingerprint() : undefined,
       });
     } finally {
       source.dispose();

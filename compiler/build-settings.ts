@@ -37,6 +37,8 @@ export interface BuildSettings {
   reviewBelow: number;
   /** Fit temperature scaling on the validation split. */
   calibrate: boolean;
+  /** Store a Bloom filter of the training texts so `eval` can warn about train/test overlap. */
+  fingerprint: boolean;
 }
 
 type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "actions" | "boolean";
@@ -76,6 +78,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   actions: { flag: "--action", kind: "actions", default: {}, description: "label=block|review|route:<destination>: what a label's rule does (default block for precision targets, review for recall-only targets)" },
   reviewBelow: { flag: "--review-below", kind: "float", min: 0, max: 1, default: 0, description: "send texts whose top score is below this to review (0 = off)" },
   calibrate: { flag: "--calibrate", kind: "boolean", default: true, description: "fit temperature scaling on validation (--no-calibrate to skip)" },
+  fingerprint: { flag: "--fingerprint", kind: "boolean", default: true, description: "store a Bloom filter (~1 byte per training text) so eval can warn about overlap with training data (--no-fingerprint leaves it out)" },
 };
 
 /** Settings with every default filled in. */

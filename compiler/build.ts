@@ -11,6 +11,7 @@ import type { Model } from "../runtime/model.ts";
 import type { BuildSettings } from "./build-settings.ts";
 import { choosePolicy, type PolicyReport } from "./compile/choose-policy.ts";
 import { fitCalibration } from "./compile/calibrate.ts";
+import { findLeaks, leakWarning, trainingFingerprint, type LeakFindings } from "./compile/text-fingerprints.ts";
 import { chooseSigmoidThresholds } from "./compile/sigmoid-thresholds.ts";
 import { huffmanTree, treePaths } from "./compile/huffman.ts";
 import { rowImportance, selectRows, subsetDraft } from "./compile/prune.ts";
@@ -65,6 +66,7 @@ export interface BuildReport {
   validation: Quality & { microF1: number; logLoss: number; ece: number };
   calibration: { temperature: number; eceBefore: number; eceAfter: number; nllBefore: number; nllAfter: number } | null;
   policy: PolicyReport | null;
+  leaks: LeakFindings | null;
   sections: Record<string, number>;
   warnings: string[];
 }
@@ -86,6 +88,11 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
 
   const labelIndex = new Map(labels.map((label, i) => [label, i]));
   const { train, validation } = splitExamples(input, labelIndex, warnings);
+  // Leakage: a validation text that also appears in training makes validation optimistic.
+  const trainTexts = train.map((e) => e.text);
+  const leaks = findLeaks(trainTexts, validation.map((e) => e.text));
+  const leak = leakWarning(leaks, "validation");
+  if (leak !== null) warnings.push(leak);
   if (validation.length === 0) warnings.push("no validation data (holdout 0 and no --validation): metrics below are not measured on held-out data");
 
   const featurizerSettings: FeaturizerSettings = {
@@ -100,7 +107,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   const featurizer = createFeaturizer(featurizerSettings);
   const encoded = encodeTexts(featurizer, train.map((e) => e.text), train.map((e) => e.labels.map((l) => labelIndex.get(l) as number)));
   const source = memorySource(encoded, labels.length, settings.hashBits);
-  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings });
+  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings, leaks, trainFingerprint: settings.fingerprint ? trainingFingerprint(trainTexts) : undefined });
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
@@ -113,6 +120,10 @@ export interface SourceBuild {
   validation: LabelledText[];
   featurizerSettings: FeaturizerSettings;
   warnings: string[];
+  /** Validation texts that also occur in training (exact, after normalization). */
+  leaks?: LeakFindings;
+  /** Bloom filter of the training texts, so `eval` can warn about overlap later. */
+  trainFingerprint?: Uint8Array;
 }
 
 /** Train the draft from a source, then compile, calibrate, choose the policy and write. */
@@ -143,6 +154,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   const train = { length: source.count };
 
   const header = baseHeader(input, head, labels, featurizerSettings, train.length);
+  if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
   const validationTexts = validation.map((e) => e.text);
 
   // The draft as shipped would be: float32, every row.
@@ -229,6 +241,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
       : { accuracy: NaN, macroF1: NaN, microF1: NaN, logLoss: NaN, ece: NaN },
     calibration,
     policy: policyReport,
+    leaks: job.leaks ?? null,
     sections: sectionSizes(bytes),
     warnings,
   };

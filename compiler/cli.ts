@@ -20,6 +20,7 @@ const COMMANDS: Record<string, { run: () => Promise<Command>; summary: string }>
   classify: { run: async () => classifyCommand, summary: "classify <model> [data | -]       labels and scores for texts" },
   explain: { run: async () => explainCommand, summary: 'explain <model> "text"            the features that pushed each top label' },
   inspect: { run: async () => inspectCommand, summary: "inspect <model>                   header, labels, sizes by section, provenance" },
+  compare: { run: async () => (await import("./cli/commands/compare-command.ts")).compareCommand, summary: "compare <live> <candidate> <data>  metric deltas, McNemar's test, flipped examples" },
   report: { run: async () => (await import("./cli/commands/report-command.ts")).reportCommand, summary: "report <model> <data> --out f     self-contained HTML report" },
   tune: { run: async () => (await import("./cli/commands/tune-command.ts")).tuneCommand, summary: "tune <data> --time 5m             search settings under size and latency budgets" },
 };

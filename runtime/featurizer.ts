@@ -16,7 +16,7 @@ import {
   classOf,
   classOfAstral,
 } from "./char-classes.ts";
-import { Murmur3Stream, murmur3String, murmur3Words } from "./murmur3.ts";
+import { Murmur3Stream, finish, mixBlock, mixTail, murmur3CodeUnits, murmur3String, murmur3Words } from "./murmur3.ts";
 import { normalizeText } from "./normalize.ts";
 
 /** Settings that define the feature space; stored in every model file. */
@@ -154,7 +154,7 @@ export class Featurizer {
       let atSign = -1;
       while (chunkEnd < length) {
         const c = text.charCodeAt(chunkEnd);
-        if (classOf(c) === SPACE) break;
+        if (c < 0x80 ? c <= 0x20 || c === 0x7f : classOf(c) === SPACE) break;
         if (c === 0x40 && atSign < 0) atSign = chunkEnd;
         chunkEnd++;
       }
@@ -241,8 +241,6 @@ export class Featurizer {
 
   /** Reads one word/number/code run starting at `start`; returns where it ended. */
   private readWord(text: string, start: number, end: number): number {
-    const stream = this.stream;
-    stream.reset(this.wordSeed);
     const charStart = this.wordCharTotal;
     let letters = 0;
     let digits = 0;
@@ -271,7 +269,6 @@ export class Featurizer {
       } else {
         break;
       }
-      stream.pushCodePoint(kept);
       this.pushWordChar(kept);
       previousClass = cls;
       i++;
@@ -284,7 +281,7 @@ export class Featurizer {
       this.addToken(CODE, this.codeHash, -1, -1, "[code]");
     } else {
       const name = this.withNames ? String.fromCharCode(...this.wordChars.subarray(charStart, charEnd)) : "";
-      this.addToken(WORD, stream.digest(), charStart, charEnd, name);
+      this.addToken(WORD, murmur3CodeUnits(this.wordChars, charStart, charEnd, this.wordSeed), charStart, charEnd, name);
     }
     return i;
   }
@@ -359,24 +356,46 @@ export class Featurizer {
   private emitCharGrams(out: FeatureBuffer): void {
     const { charMin, charMax } = this.settings;
     const mask = this.mask;
-    const stream = this.stream;
     const chars = this.wordChars;
     const names = out.names;
+    const seed = this.charSeed;
     for (let t = 0; t < this.tokenTotal; t++) {
       if (this.tokenKinds[t] !== WORD) continue;
       const first = this.tokenCharStart[t];
       const wordLength = this.tokenCharEnd[t] - first;
       const framedLength = wordLength + 2; // the word with an edge byte on each side
       for (let start = 0; start < framedLength; start++) {
-        stream.reset(this.charSeed);
+        // MurmurHash3 of the UTF-8 bytes of framed[start .. start + length), for each length,
+        // in one pass: the running state is read out (without disturbing it) at each length.
+        let h = seed | 0;
+        let pending = 0;
+        let bytes = 0;
         const longest = Math.min(charMax, framedLength - start);
         for (let length = 1; length <= longest; length++) {
           const position = start + length - 1;
           const isEdge = position === 0 || position === framedLength - 1;
-          stream.pushCodePoint(isEdge ? WORD_EDGE : chars[first + position - 1]);
+          const code = isEdge ? WORD_EDGE : chars[first + position - 1];
+          if (code < 0x80) {
+            pending |= code << ((bytes & 3) << 3);
+            if ((++bytes & 3) === 0) {
+              h = mixBlock(h, pending);
+              pending = 0;
+            }
+          } else {
+            const count = code < 0x800 ? 2 : 3;
+            for (let b = 0; b < count; b++) {
+              const byte = count === 2 ? (b === 0 ? 0xc0 | (code >>> 6) : 0x80 | (code & 0x3f)) : b === 0 ? 0xe0 | (code >>> 12) : b === 1 ? 0x80 | ((code >>> 6) & 0x3f) : 0x80 | (code & 0x3f);
+              pending |= byte << ((bytes & 3) << 3);
+              if ((++bytes & 3) === 0) {
+                h = mixBlock(h, pending);
+                pending = 0;
+              }
+            }
+          }
           if (length < charMin) continue;
           if (length === 1 && isEdge) continue; // an edge alone says nothing
-          pushSlot(out, stream.digest() & mask);
+          const digest = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+          pushSlot(out, digest & mask);
           if (names) names.push(charGramName(chars, first, wordLength, start, length));
         }
       }
@@ -426,13 +445,15 @@ function startsWithAscii(text: string, at: number, prefix: string): boolean {
 
 /** Where the host starts when [start, end) is a URL ("http://", "https://" or "www."), else -1. */
 function urlHostOffset(text: string, start: number, end: number): number {
+  const first = lowerAscii(text.charCodeAt(start));
+  if (first !== 0x68 && first !== 0x77) return -1; // neither "h" nor "w"
   let hostStart = -1;
   if (startsWithAscii(text, start, "https://")) hostStart = start + 8;
   else if (startsWithAscii(text, start, "http://")) hostStart = start + 7;
   else if (startsWithAscii(text, start, "www.")) hostStart = start;
   if (hostStart < 0 || hostStart >= end) return -1;
-  const first = classOf(text.charCodeAt(hostStart));
-  return first === LETTER || first === DIGIT ? hostStart : -1;
+  const hostClass = classOf(text.charCodeAt(hostStart));
+  return hostClass === LETTER || hostClass === DIGIT ? hostStart : -1;
 }
 
 /** local@domain.tld with a plain local part and a domain whose last label has 2+ letters. */

@@ -254,41 +254,25 @@ export class Model implements NodeScorer {
 
   private computeHidden(slots: Uint32Array, count: number): void {
     const { index, rows, rowScales, rowWeights } = this.parts;
-    const dims = this.hidden.length;
     const hidden = this.hidden;
     hidden.fill(0);
-    let totalWeight = 0;
-    let known = 0;
-    for (let f = 0; f < count; f++) {
-      const row = index.rowOf(slots[f]);
-      if (row < 0) continue;
-      known++;
-      const weight = rowWeights === null ? 1 : rowWeights[row];
-      totalWeight += weight;
-      const coefficient = rowScales === null ? weight : weight * rowScales[row];
-      const base = row * dims;
-      for (let j = 0; j < dims; j++) hidden[j] += coefficient * rows[base + j];
-    }
-    this.lastKnown = known;
-    if (totalWeight > 0) {
-      const inverse = 1 / totalWeight;
-      for (let j = 0; j < dims; j++) hidden[j] *= inverse;
+    // One loop per storage type keeps each loop's typed-array reads monomorphic even when a
+    // process holds int8 and float32 models at once (the compiler does).
+    const totals = rows instanceof Int8Array
+      ? accumulateInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, hidden)
+      : accumulateFloat(index, rows, rowWeights, slots, count, hidden);
+    this.lastKnown = totals.known;
+    if (totals.weight > 0) {
+      const inverse = 1 / totals.weight;
+      for (let j = 0; j < hidden.length; j++) hidden[j] *= inverse;
     }
   }
 
   private computeLogits(): void {
     const { outputWeights, outputScales, outputBias } = this.parts;
     const inverseTemperature = 1 / this.parts.header.calibration.temperature;
-    const dims = this.hidden.length;
-    const hidden = this.hidden;
-    const logits = this.logits;
-    for (let k = 0; k < logits.length; k++) {
-      const base = k * dims;
-      let sum = 0;
-      for (let j = 0; j < dims; j++) sum += outputWeights[base + j] * hidden[j];
-      const scale = outputScales === null ? 1 : outputScales[k];
-      logits[k] = (scale * sum + outputBias[k]) * inverseTemperature;
-    }
+    if (outputWeights instanceof Int8Array) logitsInt8(outputWeights, outputScales as Float32Array, outputBias, this.hidden, inverseTemperature, this.logits);
+    else logitsFloat(outputWeights, outputBias, this.hidden, inverseTemperature, this.logits);
   }
 
   private computeScores(): void {
@@ -351,6 +335,67 @@ export class Model implements NodeScorer {
       labels.push({ label: this.labels[k], score: scores[k], logit: this.logits[outputRow], bias, features });
     }
     return { labels, tokenCount: named.tokenCount, truncated: named.truncated, unknownFeatures: unknown };
+  }
+}
+
+const accumulated = { known: 0, weight: 0 };
+
+/** hidden += weight · scale · row for every feature with a kept int8 row. */
+function accumulateInt8(index: SlotIndex, rows: Int8Array, scales: Float32Array, weights: Float32Array | null, slots: Uint32Array, count: number, hidden: Float64Array) {
+  const dims = hidden.length;
+  let known = 0;
+  let total = 0;
+  for (let f = 0; f < count; f++) {
+    const row = index.rowOf(slots[f]);
+    if (row < 0) continue;
+    known++;
+    const weight = weights === null ? 1 : weights[row];
+    total += weight;
+    const coefficient = weight * scales[row];
+    const base = row * dims;
+    for (let j = 0; j < dims; j++) hidden[j] += coefficient * rows[base + j];
+  }
+  accumulated.known = known;
+  accumulated.weight = total;
+  return accumulated;
+}
+
+/** hidden += weight · row for every feature with a kept float32 row. */
+function accumulateFloat(index: SlotIndex, rows: Float32Array, weights: Float32Array | null, slots: Uint32Array, count: number, hidden: Float64Array) {
+  const dims = hidden.length;
+  let known = 0;
+  let total = 0;
+  for (let f = 0; f < count; f++) {
+    const row = index.rowOf(slots[f]);
+    if (row < 0) continue;
+    known++;
+    const weight = weights === null ? 1 : weights[row];
+    total += weight;
+    const base = row * dims;
+    for (let j = 0; j < dims; j++) hidden[j] += weight * rows[base + j];
+  }
+  accumulated.known = known;
+  accumulated.weight = total;
+  return accumulated;
+}
+
+function logitsInt8(weights: Int8Array, scales: Float32Array, bias: Float32Array, hidden: Float64Array, inverseTemperature: number, logits: Float64Array): void {
+  const dims = hidden.length;
+  for (let k = 0; k < logits.length; k++) {
+    const base = k * dims;
+    let sum = 0;
+    for (let j = 0; j < dims; j++) sum += weights[base + j] * hidden[j];
+    logits[k] = (scales[k] * sum + bias[k]) * inverseTemperature;
+  }
+}
+
+function logitsFloat(weights: Float32Array, bias: Float32Array, hidden: Float64Array, inverseTemperature: number, logits: Float64Array): void {
+  const dims = hidden.length;
+  for (let k = 0; k < logits.length; k++) {
+    const base = k * dims;
+    let sum = 0;
+    for (let j = 0; j < dims; j++) sum += weights[base + j] * hidden[j];
+    logits[k] = (sum + bias[k]) * inverseTemperature;
   }
 }
 

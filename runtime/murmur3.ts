@@ -138,3 +138,41 @@ export function murmur3Words(words: Uint32Array, start: number, count: number, s
   for (let i = 0; i < count; i++) h = mixBlock(h, words[start + i] | 0);
   return finish(h, count * 4);
 }
+
+/**
+ * MurmurHash3 x86_32 of the UTF-8 encoding of BMP code units `codes[start, end)`, with the
+ * state in local variables (the featurizer's hot path: words and character n-grams).
+ * `edgeAt` marks positions to hash as the single byte `edgeByte` instead (word edges),
+ * `edgeAt = -1` for none; positions are relative to `start` and may be `-1` or `end - start`.
+ * @example murmur3CodeUnits(Uint16Array.from("abc", (c) => c.charCodeAt(0)), 0, 3, 0) === murmur3String("abc", 0)
+ */
+export function murmur3CodeUnits(codes: Uint16Array, start: number, end: number, seed: number): number {
+  let h = seed | 0;
+  let pending = 0;
+  let length = 0;
+  for (let i = start; i < end; i++) {
+    const code = codes[i];
+    if (code < 0x80) {
+      pending |= code << ((length & 3) << 3);
+      if ((++length & 3) === 0) {
+        h = mixBlock(h, pending);
+        pending = 0;
+      }
+      continue;
+    }
+    const byteCount = code < 0x800 ? 2 : 3;
+    for (let b = 0; b < byteCount; b++) {
+      const byte =
+        byteCount === 2
+          ? b === 0 ? 0xc0 | (code >>> 6) : 0x80 | (code & 0x3f)
+          : b === 0 ? 0xe0 | (code >>> 12) : b === 1 ? 0x80 | ((code >>> 6) & 0x3f) : 0x80 | (code & 0x3f);
+      pending |= byte << ((length & 3) << 3);
+      if ((++length & 3) === 0) {
+        h = mixBlock(h, pending);
+        pending = 0;
+      }
+    }
+  }
+  if ((length & 3) !== 0) h = mixTail(h, pending);
+  return finish(h, length);
+}

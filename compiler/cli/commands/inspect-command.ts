@@ -1,6 +1,7 @@
 // `sluice inspect <model>`: header, labels, provenance and bytes per section.
 
 import { readFileSync } from "node:fs";
+import { summarizeTrainingFingerprint } from "../../compile/text-fingerprints.ts";
 import { sectionSizes } from "../../compile/write-model.ts";
 import { loadModelFile } from "../load-model-file.ts";
 import { parseArgs, UsageError, type FlagSpec } from "../parse-args.ts";
@@ -16,7 +17,8 @@ export async function inspectCommand(argv: string[]): Promise<number> {
   const path = args.positionals[0];
   const model = loadModelFile(path);
   const sections = sectionSizes(readFileSync(path));
-  const meta = model.meta;
+  // The training fingerprint is a Bloom filter: show what it is, not its bits.
+  const meta = { ...model.meta, provenance: { ...model.meta.provenance, trainFingerprint: summarizeTrainingFingerprint(model.meta.provenance.trainFingerprint) ?? undefined } as Record<string, unknown> };
   if (args.switches.get("--json") === true) {
     process.stdout.write(`${JSON.stringify({ file: path, ...meta, sections })}\n`);
     return 0;

@@ -1,0 +1,122 @@
+// `sluice compare <live> <candidate> <data>`: metric deltas, McNemar's test and the examples
+// whose label flips; with --require-better / --max-regression the exit code gates a CI step.
+
+import { checkGates, compareModels, COMPARE_EXIT_CODES, formatP, signed, type FlipGroup, type ModelComparison } from "../../compare.ts";
+import { fixed, formatTable } from "../format-table.ts";
+import { fieldsOf, loadModelFile } from "../load-model-file.ts";
+import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
+import { DATA_FLAGS, readData } from "../read-data.ts";
+
+export const COMPARE_FLAGS: Record<string, FlagSpec> = {
+  ...DATA_FLAGS,
+  "--json": { takesValue: false, description: "print one JSON object on stdout (all flip counts, the first 50 of each kind)" },
+  "--require-better": { takesValue: false, description: `exit ${COMPARE_EXIT_CODES.notBetter} unless the candidate is significantly better (McNemar p < 0.05 and c > b)` },
+  "--max-regression": { takesValue: true, description: `exit ${COMPARE_EXIT_CODES.regression} when the candidate's --metric drops by more than X (absolute, e.g. 0.01)` },
+  "--metric": { takesValue: true, description: "metric for --max-regression: accuracy (default) or macro-f1" },
+  "--quiet": { takesValue: false, description: "no messages on stderr" },
+  "--help": { takesValue: false, description: "show this text" },
+};
+
+const SHOWN_PER_GROUP = 10;
+
+/** The usage text, with the exit codes. */
+export function compareUsage(): string {
+  const flags = Object.entries(COMPARE_FLAGS).map(([flag, spec]) => [`  ${flag}${spec.takesValue ? " X" : ""}`, spec.description]);
+  const width = Math.max(...flags.map(([flag]) => flag.length));
+  return [
+    "usage: sluice compare <live> <candidate> <data> [options]",
+    "",
+    "Scores <data> with both models: accuracy, macro-F1 and per-label F1 with deltas (candidate − live),",
+    "McNemar's test on paired correctness (b = live right & candidate wrong, c = live wrong & candidate right;",
+    "exact binomial below 25 discordant pairs), and the examples whose predicted label flips.",
+    "",
+    "options:",
+    ...flags.map(([flag, description]) => `${flag.padEnd(width)}  ${description}`),
+    "",
+    "exit codes:",
+    `  ${COMPARE_EXIT_CODES.pass}  the requested gates pass (always, without --require-better / --max-regression)`,
+    "  1  error: unreadable file, bad data, or the models have different label sets",
+    "  2  bad command line",
+    `  ${COMPARE_EXIT_CODES.notBetter}  --require-better: the candidate is not significantly better`,
+    `  ${COMPARE_EXIT_CODES.regression}  --max-regression: the candidate's metric dropped by more than X (outranks ${COMPARE_EXIT_CODES.notBetter})`,
+  ].join("\n");
+}
+
+/** Runs the compare command; returns the exit code. */
+export async function compareCommand(argv: string[]): Promise<number> {
+  const args = parseArgs(argv, COMPARE_FLAGS);
+  if (args.switches.get("--help") === true) {
+    process.stdout.write(`${compareUsage()}\n`);
+    return 0;
+  }
+  if (args.positionals.length !== 3) throw new UsageError("compare needs two models and a data file: sluice compare <live> <candidate> <data> (--help for options)");
+  const [livePath, candidatePath, dataPath] = args.positionals;
+  const gates = gatesFromArgs(args);
+  const quiet = args.switches.get("--quiet") === true;
+  const live = loadModelFile(livePath);
+  const candidate = loadModelFile(candidatePath);
+  const { examples } = await readData(dataPath, args, fieldsOf(live), true, quiet);
+  const comparison = compareModels(live, candidate, examples);
+  if (comparison.unknownLabelExamples > 0 && !quiet) {
+    process.stderr.write(`warning: ${comparison.unknownLabelExamples} examples have labels the models do not know (${comparison.unknownLabels.slice(0, 5).join(", ")}); they are left out\n`);
+  }
+  const verdict = checkGates(comparison, gates);
+  if (args.switches.get("--json") === true) {
+    process.stdout.write(`${JSON.stringify({ ...comparison, gates: { ...gates, exitCode: verdict.exitCode, lines: verdict.lines } })}\n`);
+  } else {
+    process.stdout.write(`${describeComparison(dataPath, livePath, candidatePath, comparison, verdict.lines).join("\n")}\n`);
+  }
+  return verdict.exitCode;
+}
+
+function gatesFromArgs(args: ReturnType<typeof parseArgs>): Parameters<typeof checkGates>[1] {
+  const metric = valueOf(args, "--metric") ?? "accuracy";
+  if (metric !== "accuracy" && metric !== "macro-f1") throw new UsageError(`--metric: expected accuracy or macro-f1, got "${metric}"`);
+  const limit = valueOf(args, "--max-regression");
+  let maxRegression: number | null = null;
+  if (limit !== undefined) {
+    maxRegression = Number(limit);
+    if (limit.trim() === "" || !Number.isFinite(maxRegression) || maxRegression < 0 || maxRegression > 1) {
+      throw new UsageError(`--max-regression: expected a number from 0 to 1 (an absolute drop, e.g. 0.01), got "${limit}"`);
+    }
+  }
+  return { requireBetter: args.switches.get("--require-better") === true, maxRegression, metric };
+}
+
+function describeComparison(dataPath: string, livePath: string, candidatePath: string, c: ModelComparison, gateLines: string[]): string[] {
+  const m = c.mcnemar;
+  const lines = [
+    `${dataPath}: ${c.examples} examples; live ${livePath} (${c.versions.live}), candidate ${candidatePath} (${c.versions.candidate})`,
+    "",
+    formatTable(
+      ["metric", "live", "candidate", "delta"],
+      [
+        ["accuracy", fixed(c.live.accuracy), fixed(c.candidate.accuracy), signed(c.delta.accuracy)],
+        ["macro-F1", fixed(c.live.macroF1), fixed(c.candidate.macroF1), signed(c.delta.macroF1)],
+        ...c.labels.map((label) => [`F1 ${label}`, fixed(c.live.labels[label]), fixed(c.candidate.labels[label]), signed(c.delta.labels[label])]),
+      ],
+    ),
+    "",
+    `McNemar's test: b = ${m.b} (live right, candidate wrong), c = ${m.c} (live wrong, candidate right), ${m.method === "exact" ? "exact binomial" : `chi-square ${m.statistic.toFixed(3)} with continuity correction`}, p = ${formatP(m.pValue)}`,
+    ...describeFlips("fixed (live wrong → candidate right)", c.flips.fixed),
+    ...describeFlips("broken (live right → candidate wrong)", c.flips.broken),
+    ...describeFlips("changed (both wrong, different labels)", c.flips.changed),
+  ];
+  if (gateLines.length > 0) lines.push("", ...gateLines);
+  return lines;
+}
+
+function describeFlips(title: string, group: FlipGroup): string[] {
+  if (group.count === 0) return ["", `${title}: none`];
+  const shown = group.examples.slice(0, SHOWN_PER_GROUP);
+  return [
+    "",
+    `${title}: ${group.count}${group.count > shown.length ? `, first ${shown.length}` : ""}`,
+    ...shown.map((e) => `  line ${e.line}: gold ${e.gold}; live ${e.live.label} ${e.live.score.toFixed(3)} → candidate ${e.candidate.label} ${e.candidate.score.toFixed(3)}  ${JSON.stringify(preview(e.text))}`),
+  ];
+}
+
+function preview(text: string): string {
+  const flat = text.replace(/\s+/g, " ").trim();
+  return flat.length > 70 ? `${flat.slice(0, 67)}...` : flat;
+}
