@@ -21,6 +21,7 @@ const COMMANDS: Record<string, { run: () => Promise<Command>; summary: string }>
   explain: { run: async () => explainCommand, summary: 'explain <model> "text"            the features that pushed each top label' },
   inspect: { run: async () => inspectCommand, summary: "inspect <model>                   header, labels, sizes by section, provenance" },
   compare: { run: async () => (await import("./cli/commands/compare-command.ts")).compareCommand, summary: "compare <live> <candidate> <data>  metric deltas, McNemar's test, flipped examples" },
+  serve: { run: async () => (await import("./cli/commands/serve-command.ts")).serveCommand, summary: "serve <model> [--port N]          local HTTP server, same API as the Worker" },
   report: { run: async () => (await import("./cli/commands/report-command.ts")).reportCommand, summary: "report <model> <data> --out f     self-contained HTML report" },
   tune: { run: async () => (await import("./cli/commands/tune-command.ts")).tuneCommand, summary: "tune <data> --time 5m             search settings under size and latency budgets" },
 };

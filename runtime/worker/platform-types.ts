@@ -23,10 +23,12 @@ export interface RateLimitBinding {
   limit(options: { key: string }): Promise<{ success: boolean }>;
 }
 
-/** What a handler may do after its response (only `waitUntil` is used). */
+/** What a handler may do after its response (only passed through to hono). */
 export interface WorkerExecutionContext {
   waitUntil(promise: Promise<unknown>): void;
   passThroughOnException(): void;
+  /** Values set by a calling Worker (service bindings); unused here. */
+  props: unknown;
 }
 
 /** The Worker's bindings: `[vars]`, secrets and the optional rate limiter. All optional. */

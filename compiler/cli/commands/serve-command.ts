@@ -1,0 +1,63 @@
+// `sluice serve <model> [--port N] [--host H]`: the Worker's HTTP API on Node, built by the
+// same createApp, so a local server answers exactly like the deployed Worker. Settings come
+// from the environment under the Worker's variable names (API_TOKEN, CORS_ORIGINS, ...).
+// Listens on loopback unless --host says otherwise; stops on SIGINT or SIGTERM.
+
+import { serve } from "@hono/node-server";
+import type { AddressInfo } from "node:net";
+import { appConfigFromEnv } from "../../../runtime/worker/app-config.ts";
+import { createApp } from "../../../runtime/worker/create-app.ts";
+import { loadModelFile } from "../load-model-file.ts";
+import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
+
+export const SERVE_FLAGS: Record<string, FlagSpec> = {
+  "--port": { takesValue: true, description: "TCP port (default 8787; 0 picks a free one)" },
+  "--host": { takesValue: true, description: "address to listen on (default 127.0.0.1, loopback only)" },
+  "--help": { takesValue: false, description: "show this help" },
+};
+
+const ENVIRONMENT_HELP = [
+  "environment (the Worker's [vars] and secret names):",
+  "  API_TOKEN        bearer token required on /v1/* (unset: open)",
+  "  CORS_ORIGINS     comma-separated browser origins allowed to call /v1/*",
+  "  MAX_BODY_BYTES   largest request body (default 131072)",
+  "  MAX_TEXTS        most texts per /v1/classify call (default 100)",
+  "  MODERATE_FIELDS  body fields /v1/moderate reads (default text)",
+  "  REVIEW_BELOW     an allow below this top score becomes review (default 0.6; 0 = off)",
+];
+
+/** Runs the serve command until the process is told to stop; returns the exit code. */
+export async function serveCommand(argv: string[]): Promise<number> {
+  const args = parseArgs(argv, SERVE_FLAGS);
+  if (args.switches.get("--help") === true) {
+    const flags = Object.entries(SERVE_FLAGS).map(([flag, spec]) => `  ${flag.padEnd(16)} ${spec.description}`);
+    process.stdout.write(["usage: sluice serve <model> [--port N] [--host H]", "", ...flags, "", ...ENVIRONMENT_HELP, ""].join("\n"));
+    return 0;
+  }
+  if (args.positionals.length !== 1) throw new UsageError("serve needs one model file: sluice serve <model> [--port N] [--host H]");
+  const portText = valueOf(args, "--port") ?? "8787";
+  const port = Number(portText);
+  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`--port: expected an integer from 0 to 65535, got "${portText}"`);
+  const host = valueOf(args, "--host") ?? "127.0.0.1";
+  const model = loadModelFile(args.positionals[0]);
+  const app = createApp(model, appConfigFromEnv(process.env));
+  const server = await new Promise<ReturnType<typeof serve>>((resolve, reject) => {
+    const started = serve({ fetch: app.fetch, port, hostname: host }, () => resolve(started));
+    started.once("error", (error: NodeJS.ErrnoException) => reject(new Error(`cannot listen on ${host}:${port}: ${error.code ?? error.message}`)));
+  });
+  const address = server.address() as AddressInfo;
+  const shownHost = address.family === "IPv6" ? `[${address.address}]` : address.address;
+  process.stdout.write(`sluice serve: model ${model.meta.version} (${model.labels.join(", ")}) on http://${shownHost}:${address.port}\n`);
+  await new Promise<void>((resolve) => {
+    const stop = () => {
+      process.off("SIGINT", stop);
+      process.off("SIGTERM", stop);
+      server.close(() => resolve());
+      // Idle keep-alive connections would hold close() open; requests in flight still finish.
+      if ("closeIdleConnections" in server) server.closeIdleConnections();
+    };
+    process.once("SIGINT", stop);
+    process.once("SIGTERM", stop);
+  });
+  return 0;
+}

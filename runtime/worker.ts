@@ -1,0 +1,62 @@
+// The Sluice Worker: the HTTP API (fetch) and e-mail ingress (email) over one bundled model.
+// The model is a Data module (an ArrayBuffer) parsed once per isolate, at module scope, so
+// requests only score. Config comes from the bindings ([vars], secrets, [[ratelimits]]).
+// `sluice serve` reuses createApp from runtime/worker/create-app.ts on Node.
+
+import modelBytes from "../demo-data/models/worker-contact-form.sluice";
+import { loadModel } from "./load-model.ts";
+import { errorResponse } from "./worker/api-error.ts";
+import { appConfigFromEnv, ConfigError } from "./worker/app-config.ts";
+import { createApp, type SluiceApp } from "./worker/create-app.ts";
+import { handleEmail } from "./worker/handle-email.ts";
+import type { IncomingEmailMessage, WorkerEnv, WorkerExecutionContext } from "./worker/platform-types.ts";
+
+export { createApp } from "./worker/create-app.ts";
+export type { SluiceApp } from "./worker/create-app.ts";
+export { appConfigFromEnv, resolveAppConfig, DEFAULT_APP_CONFIG, ConfigError } from "./worker/app-config.ts";
+export type { AppConfig, EmailConfig } from "./worker/app-config.ts";
+export type { EmailOutcome } from "./worker/route-email.ts";
+
+const model = loadModel(modelBytes);
+
+// The platform passes the same env object to every request of an isolate; the app is
+// rebuilt only if it changes (e.g. a new deployment of vars), never per request.
+let cachedEnv: WorkerEnv | null = null;
+let cachedApp: SluiceApp | null = null;
+
+function appFor(env: WorkerEnv): SluiceApp {
+  if (cachedApp === null || cachedEnv !== env) {
+    cachedApp = createApp(model, appConfigFromEnv(env));
+    cachedEnv = env;
+  }
+  return cachedApp;
+}
+
+export default {
+  /** HTTP: the Sluice API and the playground page. */
+  async fetch(request: Request, env: WorkerEnv, ctx: WorkerExecutionContext): Promise<Response> {
+    let app: SluiceApp;
+    try {
+      app = appFor(env);
+    } catch (error) {
+      if (!(error instanceof ConfigError)) throw error;
+      console.error(`sluice: invalid configuration: ${error.message}`);
+      return errorResponse("bad-config", "the server's configuration is invalid; the details are in its log");
+    }
+    return app.fetch(request, env, ctx);
+  },
+
+  /** E-mail Routing: classify, then forward by label or refuse by policy. */
+  async email(message: IncomingEmailMessage, env: WorkerEnv, ctx: WorkerExecutionContext): Promise<void> {
+    void ctx; // nothing runs after the message is handled
+    let config;
+    try {
+      config = appConfigFromEnv(env).email;
+    } catch (error) {
+      // Throwing leaves the message to the platform's error handling; say why in the log.
+      if (error instanceof ConfigError) console.error(`sluice: invalid configuration, e-mail not handled: ${error.message}`);
+      throw error;
+    }
+    await handleEmail(model, config, message);
+  },
+};

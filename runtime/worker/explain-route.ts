@@ -1,0 +1,27 @@
+// POST /v1/explain: for the top labels of a text, the features with the largest exact
+// contributions to each label's logit (what the playground page shows), plus the decision.
+// Options: "top" (labels, default 3), "features" (per label, default 8, at most 50).
+
+import type { Handler } from "hono";
+import type { Model } from "../model.ts";
+import type { AppConfig } from "./app-config.ts";
+import { decideText } from "./decide-text.ts";
+import { readBodyFields } from "./read-request-body.ts";
+import { integerOption, requireText } from "./text-input.ts";
+
+/**
+ * The /v1/explain handler.
+ * @example app.post("/v1/explain", explainRoute(model, config))
+ */
+export function explainRoute(model: Model, config: AppConfig): Handler {
+  const labelCount = model.labels.length;
+  return async (c) => {
+    const body = await readBodyFields(c, ["json"]);
+    const text = requireText(body.text, "text");
+    const top = integerOption(body.top, "top", 1, labelCount, Math.min(3, labelCount));
+    const features = integerOption(body.features, "features", 1, 50, 8);
+    const explanation = model.explain(text, { top, features });
+    const decision = decideText(model, text, config.reviewBelow);
+    return c.json({ version: model.meta.version, ...explanation, decision });
+  };
+}
