@@ -164,7 +164,7 @@ interface Plan {
 function planFor(quick: boolean): Plan {
   return quick
     ? { quick, timing: { warmupCalls: 50, warmupMs: 1000, minCalls: 500, budgetMs: 20_000 }, loadRepeats: 10, bayesCapSeconds: 15, logisticCapSeconds: 15, measureCapSeconds: 60, bayesSubset: 300, sklearnSample: 100, threads: [1] }
-    : { quick, timing: { warmupCalls: 200, warmupMs: 2000, minCalls: 2000, budgetMs: 60_000 }, loadRepeats: 50, bayesCapSeconds: 120, logisticCapSeconds: 60, measureCapSeconds: 180, bayesSubset: 1000, sklearnSample: 500, threads: [1, 2] };
+    : { quick, timing: { warmupCalls: 200, warmupMs: 2000, minCalls: 2000, budgetMs: 60_000 }, loadRepeats: 50, bayesCapSeconds: 600, logisticCapSeconds: 120, measureCapSeconds: 180, bayesSubset: 1000, sklearnSample: 500, threads: [1, 2] };
 }
 
 async function loadDatasets(): Promise<Dataset[]> {
@@ -496,7 +496,7 @@ export function comparisonNotes(rows: readonly ComparisonRow[]): string[] {
     `µs/doc = one classify call per text after a warm-up, performance.now around each call, percentiles by nearest rank over the sorted calls (Sluice: ${Number.isFinite(calls) ? `≥ ${calls}` : "?"} calls; natural: see details.classify.calls in the JSON). Sluice: model.classify(text); natural: classifier.classify(text); sklearn: pipeline.predict([text]) on an evenly spread sample in Python (batch predict per text is in the ratios).`,
     "Model bytes: Sluice = the model file; natural = UTF-8 bytes of JSON.stringify(classifier), what its save() writes (it includes the stemmed training documents); sklearn = vocabulary (UTF-8 term bytes + 4 per index) + float64 coefficients and intercepts (one coefficient row for two classes; idf_, 8 bytes per term, is not counted: see details.idfBytes).",
     `Load ms: Sluice = loadModel(bytes), median of ${loadRepeats}; natural = JSON.parse + restore, median of up to ${loadRepeats} within 20 s; sklearn = pickle.loads of the fitted pipeline, median.`,
-    `natural (8.1.1) runs in a child process killed at its training cap (BayesClassifier ${capOf("natural-bayes")} s, LogisticRegressionClassifier ${capOf("natural-logistic")} s, to keep the whole comparison near 10 minutes on 2 cores), with its default Porter stemmer and stop words. When the Bayes classifier hits its cap it is run again on an evenly spread subset of the training split.`,
+    `natural (8.1.1) runs in a child process killed at its training cap (BayesClassifier ${capOf("natural-bayes")} s, LogisticRegressionClassifier ${capOf("natural-logistic")} s, so that the whole comparison ends in about half an hour on 2 cores), with its default Porter stemmer and stop words. When the Bayes classifier hits its cap it is run again on an evenly spread subset of the training split.`,
   ];
 }
 

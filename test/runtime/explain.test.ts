@@ -48,7 +48,7 @@ describe("model.explain", () => {
   }
 
   it("should name features as words, word pairs and character pieces, not hashes", async () => {
-    const model = await modelWith({});
+    const model = await modelWith({ charSpan: [3, 4] });
     const names = model.explain("refund my card", { features: 10_000 }).labels[0].features.map((f) => f.feature);
     expect(names).toContain("refund");
     expect(names).toContain("refund my");
