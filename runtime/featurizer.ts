@@ -16,7 +16,7 @@ import {
   classOf,
   classOfAstral,
 } from "./char-classes.ts";
-import { Murmur3Stream, finish, mixBlock, mixTail, murmur3CodeUnits, murmur3String, murmur3Words } from "./murmur3.ts";
+import { Murmur3Stream, finish, mixBlock, mixTail, murmur3String, murmur3Words } from "./murmur3.ts";
 import { normalizeText } from "./normalize.ts";
 
 /** Settings that define the feature space; stored in every model file. */
@@ -95,7 +95,7 @@ export class Featurizer {
   private tokenKinds = new Uint8Array(256);
   private tokenCharStart = new Int32Array(256);
   private tokenCharEnd = new Int32Array(256);
-  private wordChars = new Uint16Array(2048);
+  private wordChars: Uint16Array = new Uint16Array(2048);
   private tokenNames: string[] = [];
   private tokenTotal = 0;
   private wordCharTotal = 0;
@@ -146,42 +146,55 @@ export class Featurizer {
     let i = 0;
     while (i < length && !this.hasMoreText) {
       const code = text.charCodeAt(i);
-      if (classOf(code) === SPACE) {
+      if (code < 0x80 ? code <= 0x20 || code === 0x7f : classOf(code) === SPACE) {
         i++;
         continue;
       }
-      let chunkEnd = i + 1;
-      let atSign = -1;
-      while (chunkEnd < length) {
-        const c = text.charCodeAt(chunkEnd);
-        if (c < 0x80 ? c <= 0x20 || c === 0x7f : classOf(c) === SPACE) break;
-        if (c === 0x40 && atSign < 0) atSign = chunkEnd;
-        chunkEnd++;
-      }
-      this.tokenizeChunk(text, i, chunkEnd, atSign);
-      i = chunkEnd;
+      i = this.readChunk(text, i, length);
     }
   }
 
-  /** A chunk is a run without whitespace: a URL, an e-mail address, or ordinary tokens. */
-  private tokenizeChunk(text: string, start: number, end: number, atSign: number): void {
+  /**
+   * Reads one chunk (a run without whitespace) from `start`; returns where it ended. A chunk
+   * is a URL, an e-mail address, or ordinary tokens. Most chunks are ordinary, so they are
+   * read in one pass; only a chunk that starts like a URL, or that turned out to hold "@",
+   * is looked at again.
+   */
+  private readChunk(text: string, start: number, length: number): number {
     let coreStart = start;
-    while (coreStart < end && isOpeningBracket(text.charCodeAt(coreStart))) coreStart++;
-    let coreEnd = end;
-    while (coreEnd > coreStart && isTrailingPunctuation(text.charCodeAt(coreEnd - 1))) coreEnd--;
-    const urlHostStart = urlHostOffset(text, coreStart, coreEnd);
-    if (urlHostStart >= 0) {
-      this.addUrl(text, urlHostStart, coreEnd);
-      this.tokenizeSpan(text, coreEnd, end);
-      return;
+    while (coreStart < length && isOpeningBracket(text.charCodeAt(coreStart))) coreStart++;
+    const first = coreStart < length ? lowerAscii(text.charCodeAt(coreStart)) : 0;
+    if (first === 0x68 || first === 0x77) {
+      // "h" or "w": maybe http(s):// or www.
+      const end = chunkEnd(text, coreStart, length);
+      const coreEnd = trimTrailingPunctuation(text, coreStart, end);
+      const hostStart = urlHostOffset(text, coreStart, coreEnd);
+      if (hostStart >= 0) {
+        this.addUrl(text, hostStart, coreEnd);
+        return this.tokenizeSpan(text, coreEnd, length);
+      }
     }
-    if (atSign > coreStart && atSign < coreEnd && isEmailAddress(text, coreStart, atSign, coreEnd)) {
-      this.addToken(EMAIL, this.emailHash, -1, -1, "[email]");
-      this.tokenizeSpan(text, coreEnd, end);
-      return;
+    const tokensBefore = this.tokenTotal;
+    const charsBefore = this.wordCharTotal;
+    this.atSign = -1;
+    const end = this.tokenizeSpan(text, start, length);
+    const atSign = this.atSign;
+    if (atSign > coreStart) {
+      const coreEnd = trimTrailingPunctuation(text, coreStart, end);
+      if (atSign < coreEnd && isEmailAddress(text, coreStart, atSign, coreEnd)) {
+        // Take back the pieces read from the address and keep it as one shape token.
+        this.tokenTotal = tokensBefore;
+        this.wordCharTotal = charsBefore;
+        this.hasMoreText = false;
+        this.addToken(EMAIL, this.emailHash, -1, -1, "[email]");
+        return this.tokenizeSpan(text, coreEnd, length);
+      }
     }
-    this.tokenizeSpan(text, start, end);
+    return end;
   }
+
+  /** Position of the first "@" met by the last tokenizeSpan call, or -1. */
+  private atSign = -1;
 
   private addUrl(text: string, hostStart: number, end: number): void {
     let hostEnd = hostStart;
@@ -198,13 +211,17 @@ export class Featurizer {
     this.addToken(URL, stream.digest(), -1, -1, name);
   }
 
-  /** Ordinary tokens: words, numbers, codes, kept punctuation and emoji. */
-  private tokenizeSpan(text: string, start: number, end: number): void {
+  /**
+   * Ordinary tokens (words, numbers, codes, kept punctuation, emoji) from `start` up to the
+   * next whitespace; returns where it stopped.
+   */
+  private tokenizeSpan(text: string, start: number, end: number): number {
     const stream = this.stream;
     let i = start;
     while (i < end && !this.hasMoreText) {
       const code = text.charCodeAt(i);
       const cls = classOf(code);
+      if (cls === SPACE) break;
       if (cls === LETTER || cls === DIGIT) {
         i = this.readWord(text, i, end);
       } else if (cls === KEPT_PUNCTUATION) {
@@ -234,24 +251,33 @@ export class Featurizer {
           i++;
         }
       } else {
+        if (code === 0x40 && this.atSign < 0) this.atSign = i;
         i++; // separators, dropped characters, lone surrogates
       }
     }
+    return i;
   }
 
   /** Reads one word/number/code run starting at `start`; returns where it ended. */
   private readWord(text: string, start: number, end: number): number {
-    const charStart = this.wordCharTotal;
+    // Locals instead of fields in this loop: it runs once per character of every text.
+    let chars = this.wordChars;
+    let total = this.wordCharTotal;
+    const charStart = total;
     let letters = 0;
     let digits = 0;
     let i = start;
     let previousClass = -1;
+    // MurmurHash3 of the word's UTF-8 bytes, computed as the characters are read.
+    let h = this.wordSeed | 0;
+    let pending = 0;
+    let bytes = 0;
     while (i < end) {
       const code = text.charCodeAt(i);
       const cls = classOf(code);
-      let kept = -1;
+      let kept: number;
       if (cls === LETTER) {
-        kept = lowerAscii(code);
+        kept = code >= 0x41 && code <= 0x5a ? code + 32 : code;
         letters++;
       } else if (cls === DIGIT) {
         kept = code;
@@ -263,36 +289,53 @@ export class Featurizer {
         // Joins only when the next character continues the run (letters for an
         // apostrophe, digits on both sides for . , :).
         const nextClass = i + 1 < end ? classOf(text.charCodeAt(i + 1)) : -1;
-        const joins = cls === APOSTROPHE ? (nextClass === LETTER && previousClass === LETTER) : (nextClass === DIGIT && previousClass === DIGIT);
+        const joins = cls === APOSTROPHE ? nextClass === LETTER && previousClass === LETTER : nextClass === DIGIT && previousClass === DIGIT;
         if (!joins) break;
         kept = cls === APOSTROPHE ? 0x27 : code;
       } else {
         break;
       }
-      this.pushWordChar(kept);
+      if (total === chars.length) chars = this.growWordChars();
+      chars[total++] = kept;
+      if (kept < 0x80) {
+        pending |= kept << ((bytes & 3) << 3);
+        if ((++bytes & 3) === 0) {
+          h = mixBlock(h, pending);
+          pending = 0;
+        }
+      } else {
+        const count = kept < 0x800 ? 2 : 3;
+        for (let b = 0; b < count; b++) {
+          const byte = count === 2 ? (b === 0 ? 0xc0 | (kept >>> 6) : 0x80 | (kept & 0x3f)) : b === 0 ? 0xe0 | (kept >>> 12) : b === 1 ? 0x80 | ((kept >>> 6) & 0x3f) : 0x80 | (kept & 0x3f);
+          pending |= byte << ((bytes & 3) << 3);
+          if ((++bytes & 3) === 0) {
+            h = mixBlock(h, pending);
+            pending = 0;
+          }
+        }
+      }
       previousClass = cls;
       i++;
     }
-    const charEnd = this.wordCharTotal;
+    this.wordCharTotal = total;
     if (letters === 0) {
       const bucket = Math.min(digits, 5) - 1;
       this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
     } else if (digits >= 3) {
       this.addToken(CODE, this.codeHash, -1, -1, "[code]");
     } else {
-      const name = this.withNames ? String.fromCharCode(...this.wordChars.subarray(charStart, charEnd)) : "";
-      this.addToken(WORD, murmur3CodeUnits(this.wordChars, charStart, charEnd, this.wordSeed), charStart, charEnd, name);
+      const name = this.withNames ? String.fromCharCode(...chars.subarray(charStart, total)) : "";
+      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+      this.addToken(WORD, hash, charStart, total, name);
     }
     return i;
   }
 
-  private pushWordChar(code: number): void {
-    if (this.wordCharTotal === this.wordChars.length) {
-      const grown = new Uint16Array(this.wordChars.length * 2);
-      grown.set(this.wordChars);
-      this.wordChars = grown;
-    }
-    this.wordChars[this.wordCharTotal++] = code;
+  private growWordChars(): Uint16Array {
+    const grown = new Uint16Array(this.wordChars.length * 2);
+    grown.set(this.wordChars);
+    this.wordChars = grown;
+    return grown;
   }
 
   private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string): void {
@@ -427,6 +470,23 @@ function lowerAscii(code: number): number {
 
 function isOpeningBracket(code: number): boolean {
   return code === 0x28 || code === 0x3c || code === 0x5b || code === 0x22 || code === 0x27; // ( < [ " '
+}
+
+/** End of the whitespace-free chunk that contains `from`. */
+function chunkEnd(text: string, from: number, length: number): number {
+  let end = from;
+  while (end < length) {
+    const c = text.charCodeAt(end);
+    if (c < 0x80 ? c <= 0x20 || c === 0x7f : classOf(c) === SPACE) break;
+    end++;
+  }
+  return end;
+}
+
+/** `end` moved back over trailing punctuation (a URL or address ends before ". , ) …"). */
+function trimTrailingPunctuation(text: string, start: number, end: number): number {
+  while (end > start && isTrailingPunctuation(text.charCodeAt(end - 1))) end--;
+  return end;
 }
 
 function isTrailingPunctuation(code: number): boolean {
