@@ -1,9 +1,13 @@
-// The Sluice Worker: the HTTP API (fetch) and e-mail ingress (email) over one bundled model.
-// The model is a Data module (an ArrayBuffer) parsed once per isolate, at module scope, so
+// The Sluice Worker: the HTTP API (fetch) and e-mail ingress (email) over two bundled models.
+//   - moderation (demo: contact form, ok / spam / abusive) serves every HTTP route and is the
+//     e-mail handler's first step (block → refuse, review → a person);
+//   - routing (demo: support topics) picks the team an allowed e-mail is forwarded to.
+// Each model is a Data module (an ArrayBuffer) parsed once per isolate, at module scope, so
 // requests only score. Config comes from the bindings ([vars], secrets, [[ratelimits]]).
-// `sluice serve` reuses createApp from runtime/worker/create-app.ts on Node.
+// `sluice serve` reuses createApp from runtime/worker/create-app.ts on Node (one model, no e-mail).
 
-import modelBytes from "../demo-data/models/worker-contact-form.sluice";
+import moderationBytes from "../demo-data/models/worker-contact-form.sluice";
+import routingBytes from "../demo-data/models/worker-support-topics.sluice";
 import { loadModel } from "./load-model.ts";
 import { errorResponse } from "./worker/api-error.ts";
 import { appConfigFromEnv, ConfigError } from "./worker/app-config.ts";
@@ -15,9 +19,11 @@ export { createApp } from "./worker/create-app.ts";
 export type { SluiceApp } from "./worker/create-app.ts";
 export { appConfigFromEnv, resolveAppConfig, DEFAULT_APP_CONFIG, ConfigError } from "./worker/app-config.ts";
 export type { AppConfig, EmailConfig } from "./worker/app-config.ts";
-export type { EmailOutcome } from "./worker/route-email.ts";
+export type { EmailModels, EmailOutcome } from "./worker/route-email.ts";
 
-const model = loadModel(modelBytes);
+const moderationModel = loadModel(moderationBytes);
+const routingModel = loadModel(routingBytes);
+const emailModels = { moderation: moderationModel, routing: routingModel };
 
 // The platform passes the same env object to every request of an isolate; the app is
 // rebuilt only if it changes (e.g. a new deployment of vars), never per request.
@@ -26,7 +32,7 @@ let cachedApp: SluiceApp | null = null;
 
 function appFor(env: WorkerEnv): SluiceApp {
   if (cachedApp === null || cachedEnv !== env) {
-    cachedApp = createApp(model, appConfigFromEnv(env));
+    cachedApp = createApp(moderationModel, appConfigFromEnv(env));
     cachedEnv = env;
   }
   return cachedApp;
@@ -46,7 +52,7 @@ export default {
     return app.fetch(request, env, ctx);
   },
 
-  /** E-mail Routing: classify, then forward by label or refuse by policy. */
+  /** E-mail Routing: moderate, then forward to the topic's team, a person, or refuse by policy. */
   async email(message: IncomingEmailMessage, env: WorkerEnv, ctx: WorkerExecutionContext): Promise<void> {
     void ctx; // nothing runs after the message is handled
     let config;
@@ -57,6 +63,6 @@ export default {
       if (error instanceof ConfigError) console.error(`sluice: invalid configuration, e-mail not handled: ${error.message}`);
       throw error;
     }
-    await handleEmail(model, config, message);
+    await handleEmail(emailModels, config, message);
   },
 };

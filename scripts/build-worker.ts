@@ -1,11 +1,12 @@
-// `npm run build:worker`: builds the demo model when missing, bundles the Worker offline with
+// `npm run build:worker`: builds the two demo models (moderation and routing) when missing or
+// stale (scripts/demo-model.ts), bundles the Worker offline with
 // `wrangler deploy --dry-run`, then prints the bundle size raw and gzip-compressed and fails
 // when the gzip size is over the 1 MiB ceiling (Workers allow far more; we keep the Worker
 // small so cold starts stay short). Options: --outdir DIR (default dist), --quiet.
 
 import { spawnSync } from "node:child_process";
-import { readdirSync, readFileSync, rmSync } from "node:fs";
-import { dirname, join, resolve } from "node:path";
+import { readdirSync, readFileSync, rmSync, statSync } from "node:fs";
+import { basename, dirname, join, resolve } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { gzipSync } from "node:zlib";
 import { ensureDemoModel } from "./demo-model.ts";
@@ -71,6 +72,7 @@ if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.a
   };
   const bundle = buildWorkerBundle({ outdir: outdirIndex >= 0 ? args[outdirIndex + 1] : undefined, log });
   process.stdout.write(`worker bundle ${bundle.outdir}: ${bundle.modules.length} modules\n`);
+  for (const path of bundle.modules) process.stdout.write(`  module ${basename(path)}: ${statSync(path).size} bytes\n`);
   process.stdout.write(`  raw  ${bundle.rawBytes} bytes (${kibibytes(bundle.rawBytes)})\n`);
   process.stdout.write(`  gzip ${bundle.gzipBytes} bytes (${kibibytes(bundle.gzipBytes)}), ceiling ${kibibytes(WORKER_GZIP_CEILING)}\n`);
   if (bundle.wranglerSummary) process.stdout.write(`  wrangler: ${bundle.wranglerSummary}\n`);

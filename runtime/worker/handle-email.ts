@@ -1,45 +1,62 @@
-// The e-mail handler: parse the raw RFC 5322 message with postal-mime, classify subject and
-// body, then forward (with X-Sluice-* headers) or refuse it as routeEmail decides.
+// The e-mail handler: parse the raw RFC 5322 message with postal-mime, run moderation then
+// topic routing on subject and body (routeEmail), then forward with X-Sluice-* headers or
+// refuse the message at SMTP time.
 
 import PostalMime from "postal-mime";
-import type { Model } from "../model.ts";
 import type { EmailConfig } from "./app-config.ts";
 import { emailText } from "./email-text.ts";
+import { headerValue } from "./header-value.ts";
 import type { IncomingEmailMessage } from "./platform-types.ts";
-import { routeEmail, type EmailOutcome } from "./route-email.ts";
+import { routeEmail, toFallback, type EmailModels, type EmailOutcome } from "./route-email.ts";
 
 /**
  * Larger messages are forwarded to the fallback address without being parsed: decoding
  * big attachments would spend the request's CPU budget (10 ms on the free plan) on bytes
- * the model never reads. Messages may be up to 25 MiB (Email Routing limits).
+ * the models never read. Messages may be up to 25 MiB (Email Routing limits).
  */
 export const MAX_PARSED_BYTES = 4 * 1024 * 1024;
 
 /**
  * Handles one incoming message; returns what was done.
- * @example export default { email: (message, env) => handleEmail(model, appConfigFromEnv(env).email, message) }
+ * @example export default { email: (message, env) => handleEmail({ moderation, routing }, appConfigFromEnv(env).email, message) }
  */
-export async function handleEmail(model: Model, config: EmailConfig, message: IncomingEmailMessage): Promise<EmailOutcome> {
+export async function handleEmail(models: EmailModels, config: EmailConfig, message: IncomingEmailMessage): Promise<EmailOutcome> {
   let outcome: EmailOutcome;
   if (message.rawSize > MAX_PARSED_BYTES) {
     outcome = unclassified(config, `the message has ${message.rawSize} bytes, more than the ${MAX_PARSED_BYTES} this handler parses`);
   } else {
     const text = await readMessageText(message);
-    outcome = text === "" ? unclassified(config, "the message has no readable text") : routeEmail(model, config, text);
+    outcome = text === "" ? unclassified(config, "the message has no readable text") : routeEmail(models, config, text);
   }
   if (outcome.kind === "reject") {
     await message.setReject(outcome.reason);
     return outcome;
   }
-  // Forwarded messages may only gain X-* headers (Email Workers runtime API).
-  const headers = new Headers({ "X-Sluice-Action": outcome.action, "X-Sluice-Tokens": String(outcome.tokenCount), "X-Sluice-Model": model.meta.version });
-  if (outcome.label !== "") {
-    headers.set("X-Sluice-Label", outcome.label);
-    headers.set("X-Sluice-Score", outcome.score.toFixed(4));
-  }
-  if (outcome.fallback) headers.set("X-Sluice-Fallback", "true");
-  await message.forward(outcome.to as string, headers);
+  await message.forward(outcome.to as string, forwardHeaders(models, outcome));
   return outcome;
+}
+
+/**
+ * The headers a forwarded message gains (forwards may only add X-* headers, Email Workers
+ * runtime API): the moderation action, the topic and its score when routing ran, both model
+ * versions, and on the fallback path a flag and the reason.
+ * @example forwardHeaders(models, outcome).get("X-Sluice-Topic") // "billing"
+ */
+export function forwardHeaders(models: EmailModels, outcome: EmailOutcome): Headers {
+  const headers = new Headers({
+    "X-Sluice-Moderation": outcome.moderation.action,
+    "X-Sluice-Model": `moderation=${models.moderation.meta.version}; routing=${models.routing.meta.version}`,
+    "X-Sluice-Tokens": String(outcome.tokenCount),
+  });
+  if (outcome.topic !== null) {
+    headers.set("X-Sluice-Topic", headerValue(outcome.topic.label));
+    headers.set("X-Sluice-Score", outcome.topic.score.toFixed(4));
+  }
+  if (outcome.fallback) {
+    headers.set("X-Sluice-Fallback", "true");
+    headers.set("X-Sluice-Reason", headerValue(outcome.reason));
+  }
+  return headers;
 }
 
 async function readMessageText(message: IncomingEmailMessage): Promise<string> {
@@ -52,9 +69,7 @@ async function readMessageText(message: IncomingEmailMessage): Promise<string> {
   }
 }
 
-/** A message that cannot be read (or is too big to) goes to the fallback address unclassified. */
+/** A message that cannot be read (or is too big to) goes to a person unclassified. */
 function unclassified(config: EmailConfig, why: string): EmailOutcome {
-  const base = { label: "", score: 0, action: "review" as const, tokenCount: 0 };
-  if (config.fallback === null) return { ...base, kind: "reject", to: null, fallback: false, reason: `${why}, and no fallback address is configured` };
-  return { ...base, kind: "forward", to: config.fallback, fallback: true, reason: why };
+  return toFallback(config, { moderation: { action: "review", label: "", score: 0 }, topic: null, tokenCount: 0 }, why);
 }

@@ -4,8 +4,10 @@
 
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { summarizeTrainingFingerprint } from "../../compiler/compile/text-fingerprints.ts";
 import type { Model } from "../../runtime/model.ts";
 import { WORKER_GZIP_CEILING } from "../../scripts/build-worker.ts";
+import { DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH } from "../../scripts/demo-model.ts";
 import { demoModel, jsonPost, startWorker, workerBundle, removeWorkerBundle, type RunningWorker } from "./helpers/worker-fixture.ts";
 
 const VARS = { MODERATE_FIELDS: "subject,message", MAX_TEXTS: "5", MAX_BODY_BYTES: "65536" };
@@ -38,14 +40,29 @@ async function expectError(response: Response, status: number, code: string): Pr
   return body.error;
 }
 
+/** Size of the model's training fingerprint, read by the compiler's own decoder (compiler/compile/text-fingerprints.ts). */
+function fingerprintBytes(served: Model): number {
+  const summary = summarizeTrainingFingerprint(served.meta.provenance.trainFingerprint);
+  if (summary === null || "error" in summary) throw new Error(`the demo model has no readable training fingerprint: ${JSON.stringify(summary)}`);
+  return summary.bytes;
+}
+
+/** The most entries of any array or object anywhere in a parsed JSON value. */
+function largestCollection(value: unknown): number {
+  if (typeof value !== "object" || value === null) return 0;
+  const children = Object.values(value);
+  return Math.max(children.length, ...children.map(largestCollection));
+}
+
 describe("the Worker bundle", () => {
-  it("stays under the 1 MiB gzip ceiling and carries the model as a separate Data module", () => {
+  it("stays under the 1 MiB gzip ceiling and carries both models as separate Data modules", () => {
     const bundle = workerBundle();
     expect(bundle.gzipBytes).toBeLessThanOrEqual(WORKER_GZIP_CEILING);
-    expect(bundle.modules.some((path) => path.endsWith(".sluice"))).toBe(true);
-    // The uploaded Data module is the model file itself, byte for byte.
-    const shipped = bundle.modules.find((path) => path.endsWith(".sluice")) as string;
-    expect(readFileSync(shipped).length).toBe(model.meta.bytes);
+    // The uploaded Data modules are the two model files themselves, byte for byte.
+    const shipped = bundle.modules.filter((path) => path.endsWith(".sluice")).map((path) => readFileSync(path));
+    const models = [DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH].map((path) => readFileSync(path));
+    expect(shipped).toHaveLength(2);
+    for (const file of models) expect(shipped.some((module) => module.equals(file))).toBe(true);
   });
 });
 
@@ -61,9 +78,24 @@ describe("GET /healthz and GET /v1/model", () => {
     expect(body.version).toBe(model.meta.version);
     expect(body.labels).toEqual(["abusive", "ok", "spam"]);
     expect(body.metrics).toEqual(model.meta.metrics);
-    expect(body.provenance).toEqual(model.meta.provenance);
+    // Every provenance key the compiler writes, the fingerprint as its size only.
+    expect(body.provenance).toEqual({ ...model.meta.provenance, trainFingerprint: { bytes: fingerprintBytes(model) } });
     expect(body.policy).toEqual(model.meta.policy);
     expect(body.maxTokens).toBe(model.meta.featurizer.maxTokens);
+  });
+
+  it("serves the training fingerprint as its size, never its bits", async () => {
+    // Precondition: the demo model carries a Bloom filter of its training texts, thousands of bytes.
+    const bytes = fingerprintBytes(model);
+    expect(bytes).toBeGreaterThan(1000);
+    const text = await (await worker.fetch("/v1/model")).text();
+    const body = JSON.parse(text) as { provenance: Record<string, unknown> };
+    expect(body.provenance.trainFingerprint).toEqual({ bytes });
+    // As JSON the bits would take at least two characters a byte ("0," or "\"0\":0,"): a leak could not fit.
+    expect(text.length).toBeLessThan(2 * bytes);
+    // Neither Node's Buffer JSON ({ "type": "Buffer", "data": [...] }) nor a typed array's ({ "0": …, "1": … }).
+    expect(text).not.toMatch(/"data":\s*\[/);
+    expect(largestCollection(body)).toBeLessThan(64);
   });
 
   it("never returns training texts", async () => {

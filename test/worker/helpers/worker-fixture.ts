@@ -9,7 +9,7 @@ import { Log, LogLevel, Miniflare, type MiniflareOptions } from "miniflare";
 import { loadModel } from "../../../runtime/load-model.ts";
 import type { Model } from "../../../runtime/model.ts";
 import { buildWorkerBundle, type WorkerBundle } from "../../../scripts/build-worker.ts";
-import { ensureDemoModel } from "../../../scripts/demo-model.ts";
+import { DEMO_ROUTING_MODEL_PATH, ensureDemoModel } from "../../../scripts/demo-model.ts";
 
 /** Same date as wrangler.toml. */
 export const COMPATIBILITY_DATE = "2026-04-26";
@@ -29,11 +29,19 @@ export function removeWorkerBundle(): void {
 }
 
 let model: Model | null = null;
+let routing: Model | null = null;
 
-/** The bundled demo model (built when missing), loaded in Node from the same file the bundle holds. */
+/** The bundled moderation model (built when missing), loaded in Node from the same file the bundle holds. */
 export function demoModel(): Model {
   model ??= loadModel(readFileSync(ensureDemoModel()));
   return model;
+}
+
+/** The bundled routing (support-topics) model, loaded in Node from the same file the bundle holds. */
+export function routingModel(): Model {
+  ensureDemoModel();
+  routing ??= loadModel(readFileSync(DEMO_ROUTING_MODEL_PATH));
+  return routing;
 }
 
 /** Miniflare's log, kept in memory (forwards are logged at INFO, rejects at ERROR). */
