@@ -33,7 +33,8 @@ export async function runMicro(): Promise<MicroResult[]> {
   const texts = { 20: textOfTokens(pool, 20), 100: textOfTokens(pool.slice(10), 100), 300: textOfTokens(pool.slice(50), 300) };
   const configurations: [string, Partial<BuildSettings>][] = [
     ["words+pairs, dims 16", { dims: 16, charSpan: [0, 0], maxBytes: 0 }],
-    ["default (words+pairs+char 3-4, dims 24), 128 KB", { maxBytes: 128 * 1024 }],
+    ["defaults (words+pairs, dims 24), 128 KB", { maxBytes: 128 * 1024 }],
+    ["words+pairs+char 3-4, dims 24, 128 KB", { charSpan: [3, 4], maxBytes: 128 * 1024 }],
   ];
   for (const [label, overrides] of configurations) {
     const settings = { ...defaultBuildSettings(), ...overrides };
@@ -58,7 +59,7 @@ export async function runMicro(): Promise<MicroResult[]> {
     results.push({ name: `load ${(bytes.length / 1024).toFixed(0)} KB model (${label})`, value: round(loadUs / 1000, 3), unit: "ms", note: `${round(loadUs / 1000 / (bytes.length / 1048576), 3)} ms per MB` });
   }
   // A large model for load speed per MB: float32, every row.
-  const big = await build({ examples, settings: { ...defaultBuildSettings(), precision: "float32", charSpan: [3, 5], dims: 32 }, buildTime: "2026-01-01T00:00:00.000Z" });
+  const big = await build({ examples, settings: { ...defaultBuildSettings(), precision: "float32", charSpan: [3, 5], dims: 32, maxBytes: 0 }, buildTime: "2026-01-01T00:00:00.000Z" });
   const bigLoad = median(Array.from({ length: 5 }, () => timeBatch(() => loadModel(big.bytes), 20, 3))) / 1000;
   results.push({ name: `load ${(big.bytes.length / 1048576).toFixed(2)} MB float32 model`, value: round(bigLoad, 3), unit: "ms", note: `${round(bigLoad / (big.bytes.length / 1048576), 3)} ms per MB` });
   return results;
