@@ -71,5 +71,13 @@ function round(value: number, digits = 2): number {
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
-  for (const r of await runMicro()) console.log(`${r.name.padEnd(80)} ${String(r.value).padStart(12)} ${r.unit}${r.note ? `  (${r.note})` : ""}`);
+  const { describeMachine, machineInfo, markdownTable, writeResults } = await import("./results-writer.ts");
+  const results = await runMicro();
+  for (const r of results) console.log(`${r.name.padEnd(80)} ${String(r.value).padStart(12)} ${r.unit}${r.note ? `  (${r.note})` : ""}`);
+  if (process.argv.includes("--write")) {
+    const machine = machineInfo();
+    const table = markdownTable(["measurement", "value", "unit", "note"], results.map((r) => [r.name, String(r.value), r.unit, r.note ?? ""]), ["left", "right", "left", "left"]);
+    const written = writeResults("micro", { machine, date: new Date().toISOString(), results }, `# Sluice micro-benchmarks\n\n${new Date().toISOString()} · ${describeMachine(machine)} · command: \`node --import tsx scripts/bench/micro.ts --write\`\n\n${table}\n`);
+    console.log(`wrote ${written.json} and ${written.markdown}`);
+  }
 }
