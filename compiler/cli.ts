@@ -8,7 +8,7 @@ import { classifyCommand } from "./cli/commands/classify-command.ts";
 import { evalCommand } from "./cli/commands/eval-command.ts";
 import { explainCommand } from "./cli/commands/explain-command.ts";
 import { inspectCommand } from "./cli/commands/inspect-command.ts";
-import { UsageError } from "./cli/parse-args.ts";
+import { UsageError, type FlagSpec } from "./cli/parse-args.ts";
 import { DataError } from "./read/index.ts";
 import { TOOL_VERSION } from "./version.ts";
 
@@ -25,6 +25,27 @@ const COMMANDS: Record<string, { run: () => Promise<Command>; summary: string }>
   report: { run: async () => (await import("./cli/commands/report-command.ts")).reportCommand, summary: "report <model> <data> --out f     self-contained HTML report" },
   tune: { run: async () => (await import("./cli/commands/tune-command.ts")).tuneCommand, summary: "tune <data> --time 5m             search settings under size and latency budgets" },
 };
+
+/** Commands that print their own --help text. */
+const HELPS_ITSELF = new Set(["compare", "report", "serve"]);
+
+const FLAG_TABLES: Record<string, () => Promise<Record<string, FlagSpec>>> = {
+  build: async () => (await import("./cli/commands/build-command.ts")).BUILD_FLAGS,
+  eval: async () => (await import("./cli/commands/eval-command.ts")).EVAL_FLAGS,
+  classify: async () => (await import("./cli/commands/classify-command.ts")).CLASSIFY_FLAGS,
+  explain: async () => (await import("./cli/commands/explain-command.ts")).EXPLAIN_FLAGS,
+  inspect: async () => (await import("./cli/commands/inspect-command.ts")).INSPECT_FLAGS,
+  tune: async () => (await import("./cli/commands/tune-command.ts")).TUNE_FLAGS,
+};
+
+/** A command's usage line and its options, from the same flag table its parser uses. */
+async function commandHelp(name: string): Promise<string> {
+  const flags = FLAG_TABLES[name] ? await FLAG_TABLES[name]() : {};
+  const lines = Object.entries(flags)
+    .sort(([a], [b]) => (a < b ? -1 : 1))
+    .map(([flag, spec]) => `  ${`${flag}${spec.takesValue ? " <value>" : ""}`.padEnd(30)} ${spec.description}`);
+  return [`usage: sluice ${COMMANDS[name].summary.replace(/\s{2,}/, "   ")}`, "", "options:", ...lines].join("\n");
+}
 
 function usage(): string {
   return [`sluice ${TOOL_VERSION}: text classifiers compiled for the edge`, "", "usage: sluice <command> [options]", "", ...Object.values(COMMANDS).map((c) => `  ${c.summary}`), "", "sluice <command> --help lists a command's options."].join("\n");
@@ -50,8 +71,11 @@ export async function main(argv: string[]): Promise<number> {
     return 2;
   }
   try {
+    if (rest.includes("--help") && !HELPS_ITSELF.has(name)) {
+      process.stdout.write(`${await commandHelp(name)}\n`);
+      return 0;
+    }
     const run = await command.run();
-    if (rest.includes("--help")) return await run(["--help"]).catch(() => 0);
     return await run(rest);
   } catch (error) {
     return reportError(name, error);
