@@ -4,10 +4,9 @@
 // validation part is capped by reservoir sampling (Vitter 1985, Algorithm R); examples the
 // reservoir evicts go to training, so none is lost. Then the usual stages run.
 
-import { createFeatureBuffer, createFeaturizer, type FeaturizerSettings } from "../runtime/featurizer.ts";
+import { createFeatureBuffer, createFeaturizer } from "../runtime/featurizer.ts";
 import { murmur3Words } from "../runtime/murmur3.ts";
-import { NORMALIZATION_VERSION } from "../runtime/normalize.ts";
-import { chooseHead, compileFromSource, type BuildInput, type BuildReport } from "./build.ts";
+import { chooseHead, compileFromSource, featurizerSettingsOf, type BuildInput, type BuildReport } from "./build.ts";
 import type { LabelledText } from "./evaluate.ts";
 import { readExamples, type ReadOptions, type ReadReport } from "./read/index.ts";
 import { leakWarning, TrainingTextCollector } from "./compile/text-fingerprints.ts";
@@ -34,15 +33,7 @@ export interface FileBuildInput extends Omit<BuildInput, "examples" | "validatio
  */
 export async function buildFromFile(input: FileBuildInput): Promise<{ bytes: Uint8Array; report: BuildReport }> {
   const { settings } = input;
-  const featurizerSettings: FeaturizerSettings = {
-    normalization: NORMALIZATION_VERSION,
-    wordSpan: settings.wordSpan,
-    charMin: settings.charSpan[0],
-    charMax: settings.charSpan[1],
-    hashBits: settings.hashBits,
-    hashSeed: settings.hashSeed,
-    maxTokens: settings.maxTokens,
-  };
+  const featurizerSettings = featurizerSettingsOf(settings);
   const featurizer = createFeaturizer(featurizerSettings);
   const buffer = createFeatureBuffer(4096);
   const writer = new ShardWriter(SHARD_COUNT, settings.hashBits, settings.seed, input.tempDirectory);

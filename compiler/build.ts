@@ -95,15 +95,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   if (leak !== null) warnings.push(leak);
   if (validation.length === 0) warnings.push("no validation data (holdout 0 and no --validation): metrics below are not measured on held-out data");
 
-  const featurizerSettings: FeaturizerSettings = {
-    normalization: NORMALIZATION_VERSION,
-    wordSpan: settings.wordSpan,
-    charMin: settings.charSpan[0],
-    charMax: settings.charSpan[1],
-    hashBits: settings.hashBits,
-    hashSeed: settings.hashSeed,
-    maxTokens: settings.maxTokens,
-  };
+  const featurizerSettings = featurizerSettingsOf(settings);
   const featurizer = createFeaturizer(featurizerSettings);
   const encoded = encodeTexts(featurizer, train.map((e) => e.text), train.map((e) => e.labels.map((l) => labelIndex.get(l) as number)));
   const source = memorySource(encoded, labels.length, settings.hashBits);
@@ -252,6 +244,19 @@ function collectLabels(examples: readonly LabelledText[]): string[] {
   const labels = new Set<string>();
   for (const example of examples) for (const label of example.labels) labels.add(label);
   return [...labels].sort();
+}
+
+/** The featurizer settings a build records in its model (this runtime's normalization rules). */
+export function featurizerSettingsOf(settings: BuildSettings): FeaturizerSettings {
+  return {
+    normalization: NORMALIZATION_VERSION,
+    wordSpan: settings.wordSpan,
+    charMin: settings.charSpan[0],
+    charMax: settings.charSpan[1],
+    hashBits: settings.hashBits,
+    hashSeed: settings.hashSeed,
+    maxTokens: settings.maxTokens,
+  };
 }
 
 /** The head for `--head auto`: sigmoid for several labels per example, tree for many labels. */
