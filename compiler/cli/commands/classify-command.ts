@@ -10,7 +10,7 @@ import { DATA_FLAGS, readData, readStdin } from "../read-data.ts";
 export const CLASSIFY_FLAGS: Record<string, FlagSpec> = {
   ...DATA_FLAGS,
   "--top": { takesValue: true, description: "how many labels to list per text (default 1)" },
-  "--json": { takesValue: false, description: "one JSON line per input: { label, score, top }" },
+  "--json": { takesValue: false, description: "one JSON line per input: { label, score, top } (plus decision when the model has a policy)" },
   "--quiet": { takesValue: false, description: "no messages on stderr" },
 };
 
@@ -27,11 +27,20 @@ export async function classifyCommand(argv: string[]): Promise<number> {
   const texts = await readTexts(input, args, model, quiet);
   const json = args.switches.get("--json") === true;
   const lines: string[] = [];
+  // With a policy in the model, each line also says what the policy would do with the text.
+  const hasPolicy = model.meta.policy !== null;
   for (const text of texts) {
     const ranked = model.classify(text, { top: Math.max(top, 1) });
     const best = ranked[0];
-    if (json) lines.push(JSON.stringify({ label: best.label, score: round(best.score), top: ranked.map((r) => ({ label: r.label, score: round(r.score) })) }));
-    else lines.push(`${ranked.map((r) => `${r.label} ${r.score.toFixed(3)}`).join("  ")}\t${preview(text)}`);
+    const decision = hasPolicy ? model.decide(text) : null;
+    if (json) {
+      const line: Record<string, unknown> = { label: best.label, score: round(best.score), top: ranked.map((r) => ({ label: r.label, score: round(r.score) })) };
+      if (decision) line.decision = { action: decision.action, label: decision.label, score: round(decision.score), reasons: decision.reasons };
+      lines.push(JSON.stringify(line));
+    } else {
+      const action = decision ? `${decision.action.padEnd(6)} ` : "";
+      lines.push(`${action}${ranked.map((r) => `${r.label} ${r.score.toFixed(3)}`).join("  ")}\t${preview(text)}`);
+    }
     if (lines.length >= 1000) {
       process.stdout.write(`${lines.join("\n")}\n`);
       lines.length = 0;
