@@ -143,9 +143,8 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   say(`training: ${source.count} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
   const trainSettings = { epochs: settings.epochs, learningRate: settings.learningRate, seed: settings.seed };
   const trained = await source.train(draft, trainSettings, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
-  const train = { length: source.count };
 
-  const header = baseHeader(input, head, labels, featurizerSettings, train.length);
+  const header = baseHeader(input, head, labels, featurizerSettings, source.count);
   if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
   const validationTexts = validation.map((e) => e.text);
 
@@ -220,7 +219,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     head,
     headReason,
     labels,
-    trainExamples: train.length,
+    trainExamples: source.count,
     validationExamples: validation.length,
     trainSeconds: trained.seconds,
     tokensPerSecond: trained.tokensPerSecond,

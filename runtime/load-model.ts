@@ -10,7 +10,6 @@ import {
   DIRECTORY_ENTRY_BYTES,
   ELEMENT,
   ELEMENT_BYTES,
-  FORMAT_VERSION,
   HEADER_LENGTH_OFFSET,
   MAGIC,
   MAX_HEADER_BYTES,
@@ -78,7 +77,7 @@ export function loadModel(input: Uint8Array | ArrayBuffer): Model {
   const header = validateHeader(decoded, PRELUDE_BYTES);
   const entries = readDirectory(view, directoryStart, length - CHECKSUM_BYTES);
   if (bytes.byteOffset % SECTION_ALIGNMENT !== 0) bytes = bytes.slice(); // one aligned copy
-  const parts = buildParts(bytes, header, entries, version);
+  const parts = buildParts(bytes, header, entries);
   return new Model({ ...parts, version: hex(storedChecksum).slice(2), byteLength: length });
 }
 
@@ -132,8 +131,7 @@ function readDirectory(view: DataView, start: number, dataEnd: number): Map<numb
 
 type Parts = Omit<ConstructorParameters<typeof Model>[0], "version" | "byteLength">;
 
-function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number, SectionEntry>, version: number): Parts {
-  void version;
+function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number, SectionEntry>): Parts {
   const { dims, rowCount, outputCount } = header;
   const int8 = header.precision === "int8";
   const bucketCount = 2 ** header.index.bucketBits + 1;
@@ -215,4 +213,3 @@ function hex(value: number): string {
   return `0x${value.toString(16).padStart(8, "0")}`;
 }
 
-export { FORMAT_VERSION };

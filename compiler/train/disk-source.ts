@@ -8,7 +8,7 @@ import { closeSync, mkdtempSync, openSync, readFileSync, rmSync, writeSync } fro
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { Draft } from "./draft.ts";
-import type { EncodedExamples, Vocabulary } from "./encode.ts";
+import { keptSlots, type EncodedExamples, type Vocabulary } from "./encode.ts";
 import { createRandom, shuffleInPlace } from "./random.ts";
 import type { SourceTrainOptions, TrainingSource } from "./training-source.ts";
 import { trainDraft, type TrainResult, type TrainSettings } from "./train-draft.ts";
@@ -116,21 +116,7 @@ function diskSource(paths: string[], directory: string, count: number, tokenTota
     count,
     tokenTotal,
     labelCounts,
-    vocabulary(hashBits: number, minDocs: number): Vocabulary {
-      let kept = 0;
-      for (let slot = 0; slot < frequency.length; slot++) if (frequency[slot] >= minDocs && frequency[slot] > 0) kept++;
-      const slots = new Uint32Array(kept);
-      const documentFrequency = new Uint32Array(kept);
-      let row = 0;
-      for (let slot = 0; slot < frequency.length; slot++) {
-        if (frequency[slot] >= minDocs && frequency[slot] > 0) {
-          slots[row] = slot;
-          documentFrequency[row++] = frequency[slot];
-        }
-      }
-      void hashBits;
-      return { slots, documentFrequency, documentCount: count };
-    },
+    vocabulary: (_hashBits: number, minDocs: number): Vocabulary => keptSlots(frequency, minDocs, count),
     async train(draft: Draft, settings: TrainSettings, options: SourceTrainOptions): Promise<TrainResult> {
       if (rowSlots !== draft.slots) {
         rowOfSlot = new Int32Array(frequency.length).fill(-1);
@@ -141,7 +127,6 @@ function diskSource(paths: string[], directory: string, count: number, tokenTota
       const total = settings.epochs * count;
       const started = performance.now();
       let step = 0;
-      let lossSum = 0;
       let lastEpochLoss = 0;
       for (let epoch = 0; epoch < settings.epochs; epoch++) {
         const order = Int32Array.from(paths, (_, i) => i);
@@ -161,11 +146,9 @@ function diskSource(paths: string[], directory: string, count: number, tokenTota
               : undefined,
           });
           step += chunk.count;
-          lossSum += result.finalLoss * chunk.count;
           lastEpochLoss += result.finalLoss * chunk.count;
         }
       }
-      void lossSum;
       const seconds = (performance.now() - started) / 1000;
       return { seconds, tokensPerSecond: (settings.epochs * tokenTotal) / Math.max(seconds, 1e-9), finalLoss: count > 0 ? lastEpochLoss / count : 0 };
     },

@@ -74,19 +74,27 @@ export function buildVocabulary(encoded: EncodedExamples, hashBits: number, minD
       }
     }
   }
+  return keptSlots(frequency, minDocs, encoded.count);
+}
+
+/**
+ * The slots whose document frequency reaches `minDocs` (and is not zero), ascending, with
+ * their frequencies: the vocabulary, from counts gathered in memory or while streaming.
+ */
+export function keptSlots(frequency: Uint32Array, minDocs: number, documentCount: number): Vocabulary {
+  const threshold = Math.max(1, minDocs);
   let kept = 0;
-  for (let slot = 0; slot < size; slot++) if (frequency[slot] >= minDocs && frequency[slot] > 0) kept++;
+  for (let slot = 0; slot < frequency.length; slot++) if (frequency[slot] >= threshold) kept++;
   const slots = new Uint32Array(kept);
   const documentFrequency = new Uint32Array(kept);
   let row = 0;
-  for (let slot = 0; slot < size; slot++) {
-    if (frequency[slot] >= minDocs && frequency[slot] > 0) {
+  for (let slot = 0; slot < frequency.length; slot++) {
+    if (frequency[slot] >= threshold) {
       slots[row] = slot;
-      documentFrequency[row] = frequency[slot];
-      row++;
+      documentFrequency[row++] = frequency[slot];
     }
   }
-  return { slots, documentFrequency, documentCount: encoded.count };
+  return { slots, documentFrequency, documentCount };
 }
 
 /**

@@ -1,7 +1,7 @@
 // What a tune trial is scored by, measured on the compiled model.
 
 import type { Model } from "../../runtime/model.ts";
-import { evaluateModel, goldIndexes, scoreTexts, type LabelledText } from "../evaluate.ts";
+import { evaluateModel, scoreTexts, type LabelledText } from "../evaluate.ts";
 import { precisionRecallCurve, thresholdForTargetPrecision } from "../metrics/index.ts";
 
 export type TuneMetric = { kind: "macro-f1" } | { kind: "accuracy" } | { kind: "recall-at-precision"; label: string; precision: number };
@@ -29,7 +29,6 @@ export function scoreModel(model: Model, validation: readonly LabelledText[], me
     const point = thresholdForTargetPrecision(precisionRecallCurve(scores, positives), metric.precision, 5);
     return point ? point.recall : 0;
   }
-  void goldIndexes;
   const report = evaluateModel(model, validation);
   return metric.kind === "accuracy" ? report.accuracy : report.macroF1;
 }
