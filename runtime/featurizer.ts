@@ -386,12 +386,7 @@ export class Featurizer {
       }
     }
     const wordSpan = this.settings.wordSpan;
-    if (wordSpan >= 2 && names === null) {
-      // Pairs, the common case, with murmur3Words(hashes, t, 2, seed) written out.
-      const seed = (this.ngramSeed + 2) | 0;
-      for (let t = 0; t + 2 <= tokens; t++) pushSlot(out, finish(mixBlock(mixBlock(seed, hashes[t] | 0), hashes[t + 1] | 0), 8) & mask);
-    }
-    for (let n = names === null ? 3 : 2; n <= wordSpan; n++) {
+    for (let n = 2; n <= wordSpan; n++) {
       const seed = (this.ngramSeed + n) >>> 0;
       for (let t = 0; t + n <= tokens; t++) {
         pushSlot(out, murmur3Words(hashes, t, n, seed) & mask);

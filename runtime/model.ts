@@ -343,23 +343,10 @@ const accumulated = { known: 0, weight: 0 };
 /** hidden += weight · scale · row for every feature with a kept int8 row. */
 function accumulateInt8(index: SlotIndex, rows: Int8Array, scales: Float32Array, weights: Float32Array | null, slots: Uint32Array, count: number, hidden: Float64Array) {
   const dims = hidden.length;
-  const { buckets, keys, lowBits, lowMask } = index;
   let known = 0;
   let total = 0;
   for (let f = 0; f < count; f++) {
-    // SlotIndex.rowOf, inlined: the bucket's row range, then its keys in ascending order.
-    const slot = slots[f];
-    const key = slot & lowMask;
-    const bucket = slot >>> lowBits;
-    const end = buckets[bucket + 1];
-    let row = -1;
-    for (let candidate = buckets[bucket]; candidate < end; candidate++) {
-      const stored = keys[candidate];
-      if (stored >= key) {
-        if (stored === key) row = candidate;
-        break;
-      }
-    }
+    const row = index.rowOf(slots[f]);
     if (row < 0) continue;
     known++;
     const weight = weights === null ? 1 : weights[row];

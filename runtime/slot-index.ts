@@ -7,11 +7,10 @@
 /** Read-only view over the two index sections. */
 export class SlotIndex {
   readonly rowCount: number;
-  // Read directly by the scoring loops in model.ts (a method call per feature costs there).
-  readonly buckets: Uint16Array | Uint32Array;
-  readonly keys: Uint8Array | Uint16Array;
-  readonly lowBits: number;
-  readonly lowMask: number;
+  private readonly buckets: Uint16Array | Uint32Array;
+  private readonly keys: Uint8Array | Uint16Array;
+  private readonly lowBits: number;
+  private readonly lowMask: number;
 
   constructor(buckets: Uint16Array | Uint32Array, keys: Uint8Array | Uint16Array, lowBits: number) {
     this.buckets = buckets;
