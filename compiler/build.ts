@@ -156,14 +156,14 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   // Compile: prune to the budget, quantize, retrain the output layer on what survives.
   const importance = rowImportance(draft);
   const compile = (keep: number) => compileDraft(draft, importance, keep, source, settings, header, paths);
+  // Decide the row count first, then prune, quantize and fine-tune once.
   let keep = settings.keepFeatures > 0 ? Math.min(settings.keepFeatures, draft.slots.length) : draft.slots.length;
-  let compiled = await compile(keep);
   if (settings.maxBytes > 0) {
     const fit = fitRowsToBudget(draft, importance, settings, header, keep);
     if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
     keep = fit;
-    compiled = await compile(keep);
   }
+  let compiled = await compile(keep);
 
   // Calibrate and choose the policy on the validation split, with the compiled model.
   let calibration: BuildReport["calibration"] = null;
