@@ -294,11 +294,12 @@ export class Model implements NodeScorer {
 
   // ---- explanations (allocate freely) ---------------------------------------------
 
+  /** Explains the text just scored: scoreText(text) must be the last scoring call (its scores and logits are read). */
   private explainLabels(text: string, labelIndexes: number[], featureCount: number): Explanation {
     const { index, rows, rowScales, rowWeights, outputWeights, outputScales, outputBias, header } = this.parts;
     const named = createFeatureBuffer(256, true);
     this.featurizer.featurize(text, named);
-    const scores = this.scoreText(text).slice();
+    const scores = this.scores.slice();
     const dims = header.dims;
     const inverseTemperature = 1 / header.calibration.temperature;
     let totalWeight = 0;
