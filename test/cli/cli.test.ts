@@ -2,42 +2,20 @@
 // the repository root, on the demo data (an invented scenario, demo-data/README.md), with
 // small settings to stay fast. Outputs go to a temporary directory.
 
-import { execFile } from "node:child_process";
 import { mkdtemp, readFile, rm, stat, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
-import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { REPO, sluice, type Run } from "./run-sluice.ts";
 import { readExamples } from "../../compiler/read/index.ts";
 
-const REPO = resolve(fileURLToPath(new URL("../..", import.meta.url)));
 const SUPPORT_TOPICS = "demo-data/support-topics.csv";
 const SAMPLES = "demo-data/samples.txt";
 const SUPPORT_FIELDS = ["--text-field", "subject,body", "--label-field", "topic"];
 const SMALL = ["--epochs", "2", "--hash-bits", "16"];
 const TINY = ["--epochs", "2", "--hash-bits", "12"];
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
 
-/** Runs the CLI to completion; never rejects, so exit codes can be asserted. */
-function sluice(args: string[], options: { input?: string; env?: Record<string, string> } = {}): Promise<Run> {
-  return new Promise((done) => {
-    const child = execFile(
-      process.execPath,
-      ["bin/sluice.js", ...args],
-      { cwd: REPO, env: { ...process.env, ...options.env }, maxBuffer: 64 * 1024 * 1024, encoding: "utf8" },
-      (error, stdout, stderr) => {
-        const code = error ? (typeof error.code === "number" ? error.code : 1) : 0;
-        done({ code, stdout, stderr });
-      },
-    );
-    child.stdin?.end(options.input ?? "");
-  });
-}
 
 /** RFC 4180 field: quoted, inner quotes doubled. */
 function csvField(value: string): string {

@@ -2,30 +2,15 @@
 // the demo contact-form data (an invented scenario, demo-data/README.md). Two models of the same
 // labels are built in beforeAll with different --epochs/--dims, plus one with other labels.
 
-import { execFile } from "node:child_process";
 import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
-import { join, resolve } from "node:path";
-import { fileURLToPath } from "node:url";
+import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { REPO, sluice, type Run } from "./run-sluice.ts";
 import { mcnemarTest } from "../../compiler/metrics/index.ts";
 
-const REPO = resolve(fileURLToPath(new URL("../..", import.meta.url)));
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
 
-/** Runs the CLI to completion; never rejects, so exit codes can be asserted. */
-function sluice(args: string[]): Promise<Run> {
-  return new Promise((done) => {
-    execFile(process.execPath, ["bin/sluice.js", ...args], { cwd: REPO, maxBuffer: 64 * 1024 * 1024, encoding: "utf8" }, (error, stdout, stderr) => {
-      done({ code: error ? (typeof error.code === "number" ? error.code : 1) : 0, stdout, stderr });
-    });
-  });
-}
 
 let directory = "";
 let data = "";

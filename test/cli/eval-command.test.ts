@@ -3,31 +3,16 @@
 // demo-data/README.md), a sigmoid model from a tiny invented inbox, and a hand-made model
 // carries a training fingerprint for the leakage warning.
 
-import { execFile } from "node:child_process";
 import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
-import { join, resolve } from "node:path";
-import { fileURLToPath } from "node:url";
+import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { REPO, sluice } from "./run-sluice.ts";
 import { trainingFingerprint } from "../../compiler/compile/text-fingerprints.ts";
 import { handMadeModelBytes } from "../compiler/evaluate-hand-made-model.ts";
 
-const REPO = resolve(fileURLToPath(new URL("../..", import.meta.url)));
 
-interface Run {
-  code: number;
-  stdout: string;
-  stderr: string;
-}
 
-/** Runs the CLI to completion; never rejects, so exit codes can be asserted. */
-function sluice(args: string[]): Promise<Run> {
-  return new Promise((done) => {
-    execFile(process.execPath, ["bin/sluice.js", ...args], { cwd: REPO, maxBuffer: 64 * 1024 * 1024, encoding: "utf8" }, (error, stdout, stderr) => {
-      done({ code: error ? (typeof error.code === "number" ? error.code : 1) : 0, stdout, stderr });
-    });
-  });
-}
 
 let directory = "";
 let contact = "";
