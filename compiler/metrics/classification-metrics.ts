@@ -21,6 +21,20 @@ export interface LabelScores {
   support: number;
 }
 
+/**
+ * One label's precision, recall and F1 from its counts (0 where a ratio would be 0/0).
+ * @example labelScoresFromCounts(2, 4, 3) // { precision: 0.5, recall: 0.667, f1: 0.571, support: 3 }
+ */
+export function labelScoresFromCounts(truePositives: number, predicted: number, support: number): LabelScores {
+  return {
+    precision: divideOrZero(truePositives, predicted),
+    recall: divideOrZero(truePositives, support),
+    // 2tp / (2tp + fp + fn) is the harmonic mean of precision and recall without the 0/0 case.
+    f1: divideOrZero(2 * truePositives, predicted + support),
+    support,
+  };
+}
+
 /** Everything `computeClassificationMetrics` reports. */
 export interface ClassificationMetrics {
   examples: number;
@@ -87,11 +101,9 @@ export function computeClassificationMetrics(
     const truePositives = confusion[l][l];
     let support = 0;
     for (let p = 0; p < labelCount; p++) support += confusion[l][p];
-    const precision = divideOrZero(truePositives, predictedCount[l]);
-    const recall = divideOrZero(truePositives, support);
-    // 2tp / (2tp + fp + fn) is the harmonic mean of precision and recall without the 0/0 case.
-    const f1 = divideOrZero(2 * truePositives, predictedCount[l] + support);
-    labels[labelNames[l]] = { precision, recall, f1, support };
+    const scores = labelScoresFromCounts(truePositives, predictedCount[l], support);
+    const { precision, recall, f1 } = scores;
+    labels[labelNames[l]] = scores;
     sumPrecision += precision;
     sumRecall += recall;
     sumF1 += f1;

@@ -13,7 +13,7 @@ import {
   divideOrZero,
   type NumberList,
 } from "./input-checks.ts";
-import type { LabelScores } from "./classification-metrics.ts";
+import { labelScoresFromCounts, type LabelScores } from "./classification-metrics.ts";
 
 /** The label indices of one example, in any order. */
 export type LabelSet = Int32Array | NumberList;
@@ -125,10 +125,9 @@ export function computeMultilabelMetrics(
     const truePositives = counts.truePositives[l];
     const predictedCount = truePositives + counts.falsePositives[l];
     const support = counts.support[l];
-    const precision = divideOrZero(truePositives, predictedCount);
-    const recall = divideOrZero(truePositives, support);
-    const f1 = divideOrZero(2 * truePositives, predictedCount + support);
-    labels[labelNames[l]] = { precision, recall, f1, support };
+    const scores = labelScoresFromCounts(truePositives, predictedCount, support);
+    const { precision, recall, f1 } = scores;
+    labels[labelNames[l]] = scores;
     sumPrecision += precision;
     sumRecall += recall;
     sumF1 += f1;
