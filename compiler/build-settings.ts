@@ -26,6 +26,8 @@ export interface BuildSettings {
   precision: "int8" | "float32";
   /** Epochs that retrain the output layer on the pruned, quantized rows. */
   fineTuneEpochs: number;
+  /** Multiply the output layer into the rows when there are fewer outputs than dims. */
+  foldOutput: boolean;
   maxTokens: number;
   /** Label → precision to reach on validation data (block/route threshold). */
   targetPrecision: Record<string, number>;
@@ -77,6 +79,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   keepFeatures: { flag: "--keep-features", kind: "int", min: 0, max: 1 << 26, default: 0, description: "prune to at most N rows (0 = no limit)" },
   precision: { flag: "--precision", kind: "enum", values: ["int8", "float32"], default: "int8", description: "storage of rows and output weights" },
   fineTuneEpochs: { flag: "--fine-tune-epochs", kind: "int", min: 0, max: 100, default: 2, description: "epochs retraining the output layer on the compiled rows" },
+  foldOutput: { flag: "--fold-output", kind: "boolean", default: true, description: "store each row's contribution to every label's logit (the output layer multiplied in) when there are fewer labels than dims: smaller and faster (--no-fold-output keeps the layer)" },
   maxTokens: { flag: "--max-tokens", kind: "int", min: 1, max: 1 << 20, default: 2000, description: "tokens read per text; the rest is ignored and reported" },
   targetPrecision: { flag: "--target-precision", kind: "map", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },
   targetRecall: { flag: "--target-recall", kind: "map", default: {}, description: "label=R: threshold reaching recall R on validation" },

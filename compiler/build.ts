@@ -16,6 +16,7 @@ import { chooseSigmoidThresholds } from "./compile/sigmoid-thresholds.ts";
 import { huffmanTree, treePaths } from "./compile/huffman.ts";
 import { rowImportance, selectRows, subsetDraft } from "./compile/prune.ts";
 import { dequantizeRows, quantizeRows } from "./compile/quantize.ts";
+import { foldOutputLayer, shouldFoldOutput } from "./compile/fold-output.ts";
 import { sectionSizes, writeModel, type ModelContents } from "./compile/write-model.ts";
 import { evaluateModel, scoreTexts, type LabelledText } from "./evaluate.ts";
 import { createDraft, type Draft } from "./train/draft.ts";
@@ -149,17 +150,18 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   const validationTexts = validation.map((e) => e.text);
 
   // The draft as shipped would be: float32, every row.
-  const draftBytes = writeModel(contentsOf(draft, header, "float32", null));
+  const draftBytes = writeModel(contentsOf(draft, header, "float32", null, "hidden"));
   const draftModel = loadModel(draftBytes);
   const draftQuality = validation.length > 0 ? quality(evaluateModel(draftModel, validation)) : { accuracy: NaN, macroF1: NaN };
 
   // Compile: prune to the budget, quantize, retrain the output layer on what survives.
   const importance = rowImportance(draft);
-  const compile = (keep: number) => compileDraft(draft, importance, keep, source, settings, header, paths);
+  const rowSpace = shouldFoldOutput(settings.foldOutput, head, header.outputCount, settings.dims) ? "logits" : "hidden";
+  const compile = (keep: number) => compileDraft(draft, importance, keep, source, settings, header, paths, rowSpace);
   // Decide the row count first, then prune, quantize and fine-tune once.
   let keep = settings.keepFeatures > 0 ? Math.min(settings.keepFeatures, draft.slots.length) : draft.slots.length;
   if (settings.maxBytes > 0) {
-    const fit = fitRowsToBudget(draft, importance, settings, header, keep);
+    const fit = fitRowsToBudget(draft, importance, settings, header, keep, rowSpace);
     if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
     keep = fit;
   }
@@ -203,7 +205,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   if (settings.maxBytes > 0 && bytes.length > settings.maxBytes) {
     // The metrics made the header a little longer: drop rows until it fits, keeping the measured metrics honest.
     while (bytes.length > settings.maxBytes && keep > 0) {
-      keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings))));
+      keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings, rowSpace === "logits" ? header.outputCount : settings.dims))));
       const smaller = await compile(keep);
       smaller.contents.header = { ...compiled.contents.header };
       compiled = smaller;
@@ -286,6 +288,7 @@ function baseHeader(input: SourceBuild["input"], head: HeadKind, labels: string[
     labels,
     head,
     dims: s.dims,
+    rowSpace: "hidden",
     outputCount: head === "tree" ? labels.length - 1 : labels.length,
     featurizer,
     weighting: s.weighting,
@@ -307,8 +310,20 @@ function baseHeader(input: SourceBuild["input"], head: HeadKind, labels: string[
   };
 }
 
-function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float32", frozenRows: { values: Int8Array; scales: Float32Array } | null): ModelContents {
-  const base = { ...header, precision, metrics: { ...header.metrics }, calibration: { ...header.calibration } };
+/**
+ * The draft as model contents: float32 as trained, or int8 (rows quantized unless `frozenRows`
+ * holds the quantized rows it was fine-tuned on). With "logits" rows the output layer is
+ * multiplied into the rows (from the dequantized rows, so int8 files quantize only once more).
+ */
+function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float32", frozenRows: { values: Int8Array; scales: Float32Array } | null, rowSpace: "hidden" | "logits"): ModelContents {
+  const base = { ...header, precision, rowSpace, metrics: { ...header.metrics }, calibration: { ...header.calibration } };
+  const bias = Float32Array.from(draft.bias);
+  if (rowSpace === "logits") {
+    const rows = frozenRows ? dequantizeRows(frozenRows.values, frozenRows.scales, draft.dims) : draft.rows;
+    const folded = foldOutputLayer(rows, draft.outputs, draft.dims, draft.outputCount);
+    const stored = precision === "int8" ? quantizeRows(folded, draft.outputCount) : { values: folded, scales: null };
+    return { header: base, slots: draft.slots, rows: stored.values, rowScales: stored.scales, rowWeights: draft.rowWeights, outputWeights: null, outputScales: null, outputBias: bias, tree: null };
+  }
   if (precision === "float32") {
     return {
       header: base,
@@ -318,7 +333,7 @@ function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float
       rowWeights: draft.rowWeights,
       outputWeights: Float32Array.from(draft.outputs),
       outputScales: null,
-      outputBias: Float32Array.from(draft.bias),
+      outputBias: bias,
       tree: draft.tree,
     };
   }
@@ -332,13 +347,13 @@ function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float
     rowWeights: draft.rowWeights,
     outputWeights: outputs.values,
     outputScales: outputs.scales,
-    outputBias: Float32Array.from(draft.bias),
+    outputBias: bias,
     tree: draft.tree,
   };
 }
 
 /** Prune to `keep` rows, quantize them, retrain the output layer on exactly those rows. */
-async function compileDraft(draft: Draft, importance: Float64Array, keep: number, source: TrainingSource, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null) {
+async function compileDraft(draft: Draft, importance: Float64Array, keep: number, source: TrainingSource, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null, rowSpace: "hidden" | "logits") {
   const pruned = subsetDraft(draft, selectRows(importance, keep));
   let frozen: { values: Int8Array; scales: Float32Array } | null = null;
   if (settings.precision === "int8") {
@@ -348,19 +363,19 @@ async function compileDraft(draft: Draft, importance: Float64Array, keep: number
   if (settings.fineTuneEpochs > 0) {
     await source.train(pruned, { epochs: settings.fineTuneEpochs, learningRate: settings.learningRate * 0.2, seed: settings.seed + 1 }, { paths, trainRows: false, threads: 1 });
   }
-  return { contents: contentsOf(pruned, header, settings.precision, frozen) };
+  return { contents: contentsOf(pruned, header, settings.precision, frozen, rowSpace) };
 }
 
-/** Approximate bytes per kept row (for stepping toward a byte budget). */
-function rowBytes(settings: BuildSettings): number {
-  return (settings.precision === "int8" ? settings.dims + 4 : settings.dims * 4) + (settings.weighting === "tfidf" ? 4 : 0) + 3;
+/** Approximate bytes per kept row of `width` values (for stepping toward a byte budget). */
+function rowBytes(settings: BuildSettings, width: number): number {
+  return (settings.precision === "int8" ? width + 4 : width * 4) + (settings.weighting === "tfidf" ? 4 : 0) + 3;
 }
 
 /** The largest row count (≤ upper) whose compiled file fits the byte budget, by bisection on real writes. */
-function fitRowsToBudget(draft: Draft, importance: Float64Array, settings: BuildSettings, header: HeaderBase, upper: number): number | null {
+function fitRowsToBudget(draft: Draft, importance: Float64Array, settings: BuildSettings, header: HeaderBase, upper: number, rowSpace: "hidden" | "logits"): number | null {
   // Reserve room for the metrics and policy written into the header later.
   const budget = settings.maxBytes - 2048 - 64 * draft.labels.length;
-  const sizeWith = (keep: number) => writeModel(contentsOf(subsetDraft(draft, selectRows(importance, keep)), header, settings.precision, null)).length;
+  const sizeWith = (keep: number) => writeModel(contentsOf(subsetDraft(draft, selectRows(importance, keep)), header, settings.precision, null, rowSpace)).length;
   if (sizeWith(0) > budget) return null;
   if (sizeWith(upper) <= budget) return upper;
   let low = 0;

@@ -3,10 +3,14 @@
 
 /** "\x89SLUICE\n": a high byte catches 7-bit transfers, the newline catches line-ending rewrites. */
 export const MAGIC = new Uint8Array([0x89, 0x53, 0x4c, 0x55, 0x49, 0x43, 0x45, 0x0a]);
-/** Format version this runtime writes and reads. Bump on any change of meaning. */
-export const FORMAT_VERSION = 1;
+/**
+ * Format version this runtime writes. Bump on any change of meaning. Version 2 added the
+ * header's `rowSpace`: rows may hold each feature's contribution to every logit, with the
+ * output layer multiplied in at compile time (version 1 files always hold hidden-space rows).
+ */
+export const FORMAT_VERSION = 2;
 /** Versions the loader accepts. */
-export const SUPPORTED_VERSIONS: readonly number[] = [1];
+export const SUPPORTED_VERSIONS: readonly number[] = [1, 2];
 
 // Fixed prelude: magic(8) | u16 version | u16 flags | u32 header length | header bytes.
 export const PRELUDE_BYTES = 16;
@@ -33,13 +37,13 @@ export const SECTION = {
   slotKeys: 2,
   /** Per-row dequantization scale (f32); absent for float32 rows. */
   rowScales: 3,
-  /** Feature rows, rowCount × dims (i8 or f32). */
+  /** Feature rows (i8 or f32): rowCount × dims, or rowCount × outputCount when rowSpace is "logits". */
   rows: 4,
   /** Per-row feature weight (f32, inverse document frequency); present only with TF-IDF weighting. */
   rowWeights: 5,
-  /** Per-output-row dequantization scale (f32); absent for float32 output weights. */
+  /** Per-output-row dequantization scale (f32); absent for float32 output weights and for "logits" rows. */
   outputScales: 6,
-  /** Output weights, outputCount × dims (i8 or f32). */
+  /** Output weights, outputCount × dims (i8 or f32); absent for "logits" rows (multiplied into them). */
   outputWeights: 7,
   /** Output bias, one per output row (f32). */
   outputBias: 8,

@@ -74,7 +74,7 @@ export function loadModel(input: Uint8Array | ArrayBuffer): Model {
   } catch (error) {
     throw new ModelFormatError("bad-header", `the MessagePack header cannot be decoded: ${(error as Error).message}`, PRELUDE_BYTES);
   }
-  const header = validateHeader(decoded, PRELUDE_BYTES);
+  const header = validateHeader(decoded, PRELUDE_BYTES, version);
   const entries = readDirectory(view, directoryStart, length - CHECKSUM_BYTES);
   if (bytes.byteOffset % SECTION_ALIGNMENT !== 0) bytes = bytes.slice(); // one aligned copy
   const parts = buildParts(bytes, header, entries);
@@ -151,15 +151,16 @@ function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number,
   };
   const buckets = take("slotBuckets", bucketType, bucketCount) as Uint16Array | Uint32Array;
   const keys = take("slotKeys", keyType, rowCount) as Uint8Array | Uint16Array;
-  const rows = take("rows", int8 ? "i8" : "f32", rowCount * dims) as Int8Array | Float32Array;
+  const logitRows = header.rowSpace === "logits";
+  const rows = take("rows", int8 ? "i8" : "f32", rowCount * (logitRows ? outputCount : dims)) as Int8Array | Float32Array;
   const rowScales = int8 ? (take("rowScales", "f32", rowCount) as Float32Array) : null;
   const rowWeights = header.weighting === "tfidf" ? (take("rowWeights", "f32", rowCount) as Float32Array) : null;
-  const outputWeights = take("outputWeights", int8 ? "i8" : "f32", outputCount * dims) as Int8Array | Float32Array;
-  const outputScales = int8 ? (take("outputScales", "f32", outputCount) as Float32Array) : null;
+  const outputWeights = logitRows ? null : (take("outputWeights", int8 ? "i8" : "f32", outputCount * dims) as Int8Array | Float32Array);
+  const outputScales = int8 && !logitRows ? (take("outputScales", "f32", outputCount) as Float32Array) : null;
   const outputBias = take("outputBias", "f32", outputCount) as Float32Array;
   const tree = header.head === "tree" ? (take("tree", "i32", 2 * (header.labels.length - 1)) as Int32Array) : null;
   for (const leftover of entries.values()) {
-    throw new ModelFormatError("bad-section", `section "${sectionNameOf(leftover.id)}" does not belong in a ${header.precision} ${header.weighting} ${header.head} model`, leftover.offset);
+    throw new ModelFormatError("bad-section", `section "${sectionNameOf(leftover.id)}" does not belong in a ${header.precision} ${header.weighting} ${header.head} model with ${header.rowSpace} rows`, leftover.offset);
   }
   const indexProblem = SlotIndex.check(buckets, keys, header.index.lowBits);
   if (indexProblem) throw new ModelFormatError("bad-section", `slot index: ${indexProblem}`);
@@ -170,7 +171,7 @@ function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number,
   for (const [name, values] of [["rowScales", rowScales], ["rowWeights", rowWeights], ["outputScales", outputScales], ["outputBias", outputBias]] as const) {
     if (values && !allFinite(values)) throw new ModelFormatError("bad-section", `section "${name}" holds a value that is not a finite number`);
   }
-  if (!int8 && (!allFinite(rows as Float32Array) || !allFinite(outputWeights as Float32Array))) {
+  if (!int8 && (!allFinite(rows as Float32Array) || (outputWeights !== null && !allFinite(outputWeights as Float32Array)))) {
     throw new ModelFormatError("bad-section", "a float32 weight section holds a value that is not a finite number");
   }
   return {

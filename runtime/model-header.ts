@@ -9,12 +9,21 @@ import type { Policy } from "./policy.ts";
 export type HeadKind = "softmax" | "sigmoid" | "tree";
 export type Weighting = "mean" | "tfidf";
 export type Precision = "int8" | "float32";
+/**
+ * What a feature row holds. "hidden": a dims-wide embedding, scored through the output layer.
+ * "logits": the row's contribution to each of the outputCount logits (the output layer
+ * multiplied in at compile time), so scoring a feature costs outputCount multiply-adds
+ * instead of dims. The tree head always uses "hidden" (it scores only the nodes it visits).
+ */
+export type RowSpace = "hidden" | "logits";
 
 /** Everything a runtime needs besides the numeric sections, plus what people need to trust it. */
 export interface ModelHeader {
   labels: string[];
   head: HeadKind;
+  /** Width of the trained embeddings (and of the rows when rowSpace is "hidden"). */
   dims: number;
+  rowSpace: RowSpace;
   /** Kept feature rows. */
   rowCount: number;
   /** Rows of the output layer: one per label (softmax, sigmoid) or per inner tree node (tree). */
@@ -40,8 +49,11 @@ export interface ModelHeader {
 const MAX_DIMS = 1024;
 const MAX_LABELS = 1 << 20;
 
-/** Checks a decoded header; throws ModelFormatError("bad-header") naming the bad field. */
-export function validateHeader(value: unknown, offset: number): ModelHeader {
+/**
+ * Checks a decoded header of a file in format `version`; throws ModelFormatError("bad-header")
+ * naming the bad field. Version 1 headers have no rowSpace: their rows are hidden-space.
+ */
+export function validateHeader(value: unknown, offset: number, version: number): ModelHeader {
   const fail = (field: string, expected: string): never => {
     throw new ModelFormatError("bad-header", `header field "${field}": expected ${expected}`, offset);
   };
@@ -60,6 +72,10 @@ export function validateHeader(value: unknown, offset: number): ModelHeader {
   checkInteger(header.rowCount, 0, 0x7fffffff) || fail("rowCount", "a non-negative integer");
   const expectedOutputs = head === "tree" ? labelCount - 1 : labelCount;
   header.outputCount === expectedOutputs || fail("outputCount", `${expectedOutputs} for a ${String(head)} head over ${labelCount} labels`);
+  const rowSpace = version === 1 ? "hidden" : header.rowSpace;
+  if (version === 1 && header.rowSpace !== undefined) fail("rowSpace", "absent in a version 1 file");
+  if (rowSpace !== "hidden" && rowSpace !== "logits") fail("rowSpace", '"hidden" or "logits"');
+  if (rowSpace === "logits" && head === "tree") fail("rowSpace", '"hidden" for a tree head');
   const featurizer = header.featurizer;
   if (!isRecord(featurizer)) return fail("featurizer", "a map");
   const f = featurizer as Record<string, unknown>;
@@ -99,6 +115,7 @@ export function validateHeader(value: unknown, offset: number): ModelHeader {
     labels: labels as string[],
     head: head as HeadKind,
     dims: header.dims as number,
+    rowSpace: rowSpace as RowSpace,
     rowCount: header.rowCount as number,
     outputCount: header.outputCount as number,
     featurizer: {

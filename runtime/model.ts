@@ -3,6 +3,9 @@
 //   hidden = Σ_f w_f · row_f / Σ_f w_f          (w_f = 1, or the row's IDF under TF-IDF)
 //   logit_k = (outputScale_k · Σ_j out_kj · hidden_j + bias_k) / temperature
 // so every logit splits exactly into per-feature contributions plus the bias (explain).
+// With "logits" rows the compiler has multiplied the output layer into the rows, so
+//   logit_k = (Σ_f w_f · row_f[k] / Σ_f w_f + bias_k) / temperature
+// and a feature costs one multiply-add per label instead of one per embedding dimension.
 
 import { InputError } from "./errors.ts";
 import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featurizer } from "./featurizer.ts";
@@ -18,7 +21,8 @@ export interface ModelParts {
   rows: Int8Array | Float32Array;
   rowScales: Float32Array | null;
   rowWeights: Float32Array | null;
-  outputWeights: Int8Array | Float32Array;
+  /** Null when the rows hold logits (the output layer was multiplied into them). */
+  outputWeights: Int8Array | Float32Array | null;
   outputScales: Float32Array | null;
   outputBias: Float32Array;
   tree: Int32Array | null;
@@ -79,6 +83,7 @@ export interface ModelMeta {
   labels: string[];
   head: ModelHeader["head"];
   dims: number;
+  rowSpace: ModelHeader["rowSpace"];
   rowCount: number;
   precision: ModelHeader["precision"];
   weighting: ModelHeader["weighting"];
@@ -124,6 +129,7 @@ export class Model implements NodeScorer {
       labels: [...header.labels],
       head: header.head,
       dims: header.dims,
+      rowSpace: header.rowSpace,
       rowCount: header.rowCount,
       precision: header.precision,
       weighting: header.weighting,
@@ -230,7 +236,8 @@ export class Model implements NodeScorer {
 
   /** One output row's temperature-scaled logit from the current hidden vector (tree search). */
   nodeLogit(output: number): number {
-    const { outputWeights, outputScales, outputBias } = this.parts;
+    const { outputScales, outputBias } = this.parts;
+    const outputWeights = this.parts.outputWeights as Int8Array | Float32Array; // a tree head's rows are always hidden-space
     const dims = this.hidden.length;
     const hidden = this.hidden;
     const base = output * dims;
@@ -246,10 +253,28 @@ export class Model implements NodeScorer {
     this.featurizer.featurize(text, buffer);
     this.lastTokenCount = buffer.tokenCount;
     this.lastTruncated = buffer.truncated;
-    this.computeHidden(buffer.slots, buffer.count);
-    this.computeLogits();
+    if (this.parts.header.rowSpace === "logits") {
+      this.computeLogitsFromRows(buffer.slots, buffer.count);
+    } else {
+      this.computeHidden(buffer.slots, buffer.count);
+      this.computeLogits();
+    }
     this.computeScores();
     return this.scores;
+  }
+
+  /** Logit rows: the mean of the known features' rows is the logit vector, before bias and temperature. */
+  private computeLogitsFromRows(slots: Uint32Array, count: number): void {
+    const { index, rows, rowScales, rowWeights, outputBias } = this.parts;
+    const logits = this.logits;
+    logits.fill(0);
+    const totals = rows instanceof Int8Array
+      ? accumulateInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, logits)
+      : accumulateFloat(index, rows, rowWeights, slots, count, logits);
+    this.lastKnown = totals.known;
+    const inverse = totals.weight > 0 ? 1 / totals.weight : 0;
+    const inverseTemperature = 1 / this.parts.header.calibration.temperature;
+    for (let k = 0; k < logits.length; k++) logits[k] = (logits[k] * inverse + outputBias[k]) * inverseTemperature;
   }
 
   private computeHidden(slots: Uint32Array, count: number): void {
@@ -269,7 +294,8 @@ export class Model implements NodeScorer {
   }
 
   private computeLogits(): void {
-    const { outputWeights, outputScales, outputBias } = this.parts;
+    const { outputScales, outputBias } = this.parts;
+    const outputWeights = this.parts.outputWeights as Int8Array | Float32Array; // only called for hidden-space rows
     const inverseTemperature = 1 / this.parts.header.calibration.temperature;
     if (outputWeights instanceof Int8Array) logitsInt8(outputWeights, outputScales as Float32Array, outputBias, this.hidden, inverseTemperature, this.logits);
     else logitsFloat(outputWeights, outputBias, this.hidden, inverseTemperature, this.logits);
@@ -301,6 +327,7 @@ export class Model implements NodeScorer {
     this.featurizer.featurize(text, named);
     const scores = this.scores.slice();
     const dims = header.dims;
+    const width = outputWeights === null ? header.outputCount : dims; // values per row
     const inverseTemperature = 1 / header.calibration.temperature;
     let totalWeight = 0;
     let unknown = 0;
@@ -323,7 +350,8 @@ export class Model implements NodeScorer {
         const weight = rowWeights === null ? 1 : rowWeights[row];
         const rowScale = rowScales === null ? 1 : rowScales[row];
         let dot = 0;
-        for (let j = 0; j < dims; j++) dot += outputWeights[outputRow * dims + j] * rows[row * dims + j];
+        if (outputWeights === null) dot = rows[row * width + outputRow];
+        else for (let j = 0; j < dims; j++) dot += outputWeights[outputRow * dims + j] * rows[row * dims + j];
         const contribution = ((weight * rowScale * outputScale * dot) / totalWeight) * inverseTemperature;
         const name = (named.names as string[])[f];
         byName.set(name, (byName.get(name) ?? 0) + contribution);
@@ -341,7 +369,7 @@ export class Model implements NodeScorer {
 
 const accumulated = { known: 0, weight: 0 };
 
-/** hidden += weight · scale · row for every feature with a kept int8 row. */
+/** hidden += weight · scale · row for every feature with a kept int8 row (`hidden` may be the logits, for logit rows). */
 function accumulateInt8(index: SlotIndex, rows: Int8Array, scales: Float32Array, weights: Float32Array | null, slots: Uint32Array, count: number, hidden: Float64Array) {
   const dims = hidden.length;
   let known = 0;

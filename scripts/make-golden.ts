@@ -1,6 +1,8 @@
-// Writes test/fixtures/golden/tiny.sluice, the golden model file pinned by
-// test/runtime/golden-model.test.ts. Run only when the format version changes:
+// Writes test/fixtures/golden/tiny-v2.sluice, the golden file of the current format version,
+// pinned by test/runtime/golden-model.test.ts. Run only when the format version changes (then
+// rename the output for the new version and keep the older files: the loader must keep reading them):
 //   npm run golden
+// tiny.sluice is the version 1 file this script wrote before version 2 existed; it is kept as is.
 import { writeFileSync } from "node:fs";
 import { build } from "../compiler/build.ts";
 import { defaultBuildSettings } from "../compiler/build-settings.ts";
@@ -15,5 +17,5 @@ const examples = [
 ];
 const settings = { ...defaultBuildSettings(), dims: 4, hashBits: 12, charSpan: [0, 0] as [number, number], epochs: 20, holdout: 0, calibrate: false, minDocs: 1, fineTuneEpochs: 1 };
 const { bytes } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z", dataName: "golden-inline" });
-writeFileSync(new URL("../test/fixtures/golden/tiny.sluice", import.meta.url), bytes);
-console.log(`wrote test/fixtures/golden/tiny.sluice (${bytes.length} bytes)`);
+writeFileSync(new URL("../test/fixtures/golden/tiny-v2.sluice", import.meta.url), bytes);
+console.log(`wrote test/fixtures/golden/tiny-v2.sluice (${bytes.length} bytes)`);

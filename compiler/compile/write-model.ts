@@ -28,7 +28,8 @@ export interface ModelContents {
   rows: Int8Array | Float32Array;
   rowScales: Float32Array | null;
   rowWeights: Float32Array | null;
-  outputWeights: Int8Array | Float32Array;
+  /** Null for "logits" rows (the output layer is multiplied into them). */
+  outputWeights: Int8Array | Float32Array | null;
   outputScales: Float32Array | null;
   outputBias: Float32Array;
   tree: Int32Array | null;
@@ -61,6 +62,8 @@ export function writeModel(contents: ModelContents): Uint8Array {
   const headerBytes = pack(orderedHeader(header)) as Uint8Array;
   if (headerBytes.length > MAX_HEADER_BYTES) throw new Error(`model header is ${headerBytes.length} bytes, over the ${MAX_HEADER_BYTES}-byte limit (too many labels?)`);
   const int8 = header.precision === "int8";
+  const hiddenRows = header.rowSpace === "hidden";
+  if (hiddenRows !== (contents.outputWeights !== null)) throw new Error(`writeModel: ${header.rowSpace} rows ${hiddenRows ? "need" : "take no"} output weights`);
   const sections: PlannedSection[] = [
     { name: "slotBuckets", element: rowCount < 65536 ? "u16" : "u32", data: buckets },
     { name: "slotKeys", element: lowBits <= 8 ? "u8" : "u16", data: keys },
@@ -68,8 +71,10 @@ export function writeModel(contents: ModelContents): Uint8Array {
   ];
   if (int8) sections.push({ name: "rowScales", element: "f32", data: contents.rowScales as Float32Array });
   if (header.weighting === "tfidf") sections.push({ name: "rowWeights", element: "f32", data: contents.rowWeights as Float32Array });
-  sections.push({ name: "outputWeights", element: int8 ? "i8" : "f32", data: contents.outputWeights });
-  if (int8) sections.push({ name: "outputScales", element: "f32", data: contents.outputScales as Float32Array });
+  if (hiddenRows) {
+    sections.push({ name: "outputWeights", element: int8 ? "i8" : "f32", data: contents.outputWeights as Int8Array | Float32Array });
+    if (int8) sections.push({ name: "outputScales", element: "f32", data: contents.outputScales as Float32Array });
+  }
   sections.push({ name: "outputBias", element: "f32", data: contents.outputBias });
   if (header.head === "tree") sections.push({ name: "tree", element: "i32", data: contents.tree as Int32Array });
 
@@ -141,6 +146,7 @@ function orderedHeader(header: ModelHeader): Record<string, unknown> {
     labels: header.labels,
     head: header.head,
     dims: header.dims,
+    rowSpace: header.rowSpace,
     rowCount: header.rowCount,
     outputCount: header.outputCount,
     featurizer: {

@@ -44,7 +44,7 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
     ["content id (CRC-32)", meta.version],
     ["file size", formatBytes(meta.bytes)],
     ["head", `${meta.head} over ${meta.labels.length} labels`],
-    ["feature rows", `${formatCount(meta.rowCount)} × ${meta.dims} dims, stored as ${meta.precision}, weighting ${meta.weighting}`],
+    ["feature rows", `${formatCount(meta.rowCount)} × ${meta.rowSpace === "logits" ? `${meta.labels.length} logits (trained at ${meta.dims} dims, output layer multiplied in)` : `${meta.dims} dims`}, stored as ${meta.precision}, weighting ${meta.weighting}`],
     ["calibration", `temperature ${meta.calibration.temperature.toFixed(3)}`],
     ["featurizer", `normalization v${featurizer.normalization}, word span ${featurizer.wordSpan}, char span ${featurizer.charMin === 0 ? "off" : `${featurizer.charMin}–${featurizer.charMax}`}, ${featurizer.hashBits} hash bits, seed ${featurizer.hashSeed}, at most ${formatCount(featurizer.maxTokens)} tokens`],
     ["labels", meta.labels.join(", ")],

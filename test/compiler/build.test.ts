@@ -78,8 +78,8 @@ describe("build", () => {
     expect(every.reduce((sum, s) => sum + s.score, 0)).toBeCloseTo(1, 5);
   });
 
-  it("fits a 64 KiB size budget by pruning rows", async () => {
-    const maxBytes = 64 * 1024;
+  it("fits a 16 KiB size budget by pruning rows", async () => {
+    const maxBytes = 16 * 1024;
     const { bytes, report } = await build({ examples: subset, settings: quickSettings({ maxBytes }), buildTime: BUILD_TIME });
     expect(bytes.length).toBeLessThanOrEqual(maxBytes);
     expect(report.rows.kept).toBeLessThan(report.rows.seen);

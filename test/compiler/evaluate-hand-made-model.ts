@@ -46,6 +46,7 @@ export function handMadeModelBytes(spec: HandMadeModelSpec): Uint8Array {
     header: {
       labels: spec.labels,
       head,
+      rowSpace: "hidden",
       dims: 1,
       outputCount: spec.labels.length,
       featurizer: HAND_MADE_FEATURIZER,

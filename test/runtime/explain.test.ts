@@ -25,11 +25,14 @@ function logOdds(model: Model, text: string): number[] {
 
 describe("model.explain", () => {
   for (const [name, overrides] of [
-    ["int8 rows, mean weighting", {}],
-    ["float32 rows, TF-IDF weighting", { precision: "float32" as const, weighting: "tfidf" as const }],
+    ["int8 logit rows, mean weighting", {}],
+    ["float32 logit rows, TF-IDF weighting", { precision: "float32" as const, weighting: "tfidf" as const }],
+    ["int8 hidden rows and output layer, mean weighting", { foldOutput: false }],
+    ["float32 hidden rows and output layer, TF-IDF weighting", { precision: "float32" as const, weighting: "tfidf" as const, foldOutput: false }],
   ] as const) {
     it(`should split each logit exactly into bias plus feature contributions (${name})`, async () => {
       const model = await modelWith(overrides);
+      expect(model.meta.rowSpace).toBe("foldOutput" in overrides ? "hidden" : "logits");
       const text = "refund the parcel charge, my account is locked";
       const explanation = model.explain(text, { top: 3, features: 10_000 });
       expect(explanation.labels).toHaveLength(3);

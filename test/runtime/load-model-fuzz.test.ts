@@ -8,7 +8,10 @@ import { pack, unpack } from "msgpackr";
 import { describe, expect, it } from "vitest";
 import { crc32, loadModel, ModelFormatError } from "../../runtime/index.ts";
 
-const golden = new Uint8Array(readFileSync(new URL("../fixtures/golden/tiny.sluice", import.meta.url)));
+const goldenFiles: [string, Uint8Array][] = [
+  ["version 1, hidden rows", new Uint8Array(readFileSync(new URL("../fixtures/golden/tiny.sluice", import.meta.url)))],
+  ["version 2, logit rows", new Uint8Array(readFileSync(new URL("../fixtures/golden/tiny-v2.sluice", import.meta.url)))],
+];
 
 function expectRefused(bytes: Uint8Array, code?: string): void {
   let thrown: unknown = null;
@@ -29,7 +32,7 @@ function withChecksum(bytes: Uint8Array): Uint8Array {
 }
 
 /** The golden file with its header replaced by `header`; sections move by a multiple of 8. */
-function withHeader(header: Record<string, unknown>): Uint8Array {
+function withHeader(golden: Uint8Array, header: Record<string, unknown>): Uint8Array {
   const view = new DataView(golden.buffer, golden.byteOffset, golden.byteLength);
   const oldDirectory = (16 + view.getUint32(12, true) + 7) & ~7;
   const packed = pack(header) as Uint8Array;
@@ -50,12 +53,12 @@ function withHeader(header: Record<string, unknown>): Uint8Array {
   return withChecksum(out);
 }
 
-function goldenHeader(): Record<string, any> {
+function goldenHeader(golden: Uint8Array): Record<string, any> {
   const view = new DataView(golden.buffer, golden.byteOffset, golden.byteLength);
   return unpack(golden.subarray(16, 16 + view.getUint32(12, true))) as Record<string, any>;
 }
 
-describe("loadModel on hostile bytes", () => {
+describe.each(goldenFiles)("loadModel on hostile bytes (%s)", (_name, golden) => {
   it("should refuse random bytes with a ModelFormatError", () => {
     fc.assert(
       fc.property(fc.uint8Array({ minLength: 0, maxLength: 4096 }), (bytes) => {
@@ -107,7 +110,7 @@ describe("loadModel on hostile bytes", () => {
   });
 
   it("should refuse absurd lengths and counts in the header", () => {
-    const base = goldenHeader();
+    const base = goldenHeader(golden);
     const cases: [string, (h: Record<string, any>) => void, string][] = [
       ["rowCount", (h) => (h.rowCount = 0x7fffffff), "bad-section"], // the header is well-formed; the sections cannot hold that many rows
       ["dims", (h) => (h.dims = 1e9), "bad-header"],
@@ -118,13 +121,16 @@ describe("loadModel on hostile bytes", () => {
       ["temperature", (h) => (h.calibration = { temperature: -1 }), "bad-header"],
       ["labels type", (h) => (h.labels = "billing"), "bad-header"],
       ["normalization", (h) => (h.featurizer.normalization = 99), "bad-header"],
+      ["rowSpace", (h) => (h.rowSpace = h.rowSpace === undefined ? "logits" : "sideways"), "bad-header"], // v1: must be absent; v2: hidden or logits
     ];
+    // Logit rows described as hidden ones: the output layer sections are missing.
+    if (base.rowSpace === "logits") cases.push(["rowSpace hidden over logit rows", (h) => (h.rowSpace = "hidden"), "bad-section"]);
     // The unchanged header round-trips, so each refusal below is the field's doing.
-    expect(loadModel(withHeader(structuredClone(base))).meta.labels).toEqual(["billing", "shipping"]);
+    expect(loadModel(withHeader(golden, structuredClone(base))).meta.labels).toEqual(["billing", "shipping"]);
     for (const [, mutate, code] of cases) {
       const header = structuredClone(base);
       mutate(header);
-      expectRefused(withHeader(header), code);
+      expectRefused(withHeader(golden, header), code);
     }
   });
 
