@@ -64,6 +64,11 @@ const MARK = 6; // kept punctuation or emoji
 // suffixes differ from inner pieces. Control characters never survive tokenization,
 // so 0x01 cannot collide with text.
 const WORD_EDGE = 0x01;
+/** ASCII letters (lower-cased) and digits as the bytes a word hashes; 0 for every other code. */
+const ASCII_WORD_BYTES = Uint8Array.from({ length: 128 }, (_, code) => {
+  if (code >= 0x41 && code <= 0x5a) return code + 32;
+  return (code >= 0x61 && code <= 0x7a) || (code >= 0x30 && code <= 0x39) ? code : 0;
+});
 const NUMBER_NAMES = ["[number:1]", "[number:2]", "[number:3]", "[number:4]", "[number:5+]"];
 
 /**
@@ -100,9 +105,13 @@ export class Featurizer {
   private tokenTotal = 0;
   private wordCharTotal = 0;
   private withNames = false;
+  /** Whether readWord must keep the word's characters (for character n-grams or names). */
+  private keepWordChars = false;
+  private readonly maxTokens: number;
 
   constructor(settings: FeaturizerSettings) {
     this.settings = { ...settings };
+    this.maxTokens = settings.maxTokens;
     this.mask = settings.hashBits >= 32 ? 0xffffffff : (1 << settings.hashBits) - 1;
     const seed = settings.hashSeed >>> 0;
     this.wordSeed = seed;
@@ -124,6 +133,7 @@ export class Featurizer {
     out.count = 0;
     out.truncated = false;
     this.withNames = out.names !== null;
+    this.keepWordChars = this.withNames || this.settings.charMin > 0;
     if (out.names) out.names.length = 0;
     this.tokenNames.length = 0;
     const normalized = normalizeText(text);
@@ -150,8 +160,65 @@ export class Featurizer {
         i++;
         continue;
       }
-      i = this.readChunk(text, i, length);
+      const plainEnd = this.plainChunks ? this.readPlainChunk(text, i, length) : -1;
+      i = plainEnd >= 0 ? plainEnd : this.readChunk(text, i, length);
     }
+  }
+
+  /** Off only in tests, to check that the fast path reads exactly what readChunk reads. */
+  plainChunks = true;
+
+  /**
+   * Fast path for the most common chunk: ASCII letters and digits, then at most one of
+   * , . ; : and then whitespace or the end of the text. Returns where the chunk ends, or -1,
+   * having changed nothing, when the chunk needs readChunk (anything else, a URL-like start,
+   * or the token limit). It yields exactly the token readChunk would.
+   */
+  private readPlainChunk(text: string, start: number, length: number): number {
+    const first = text.charCodeAt(start) | 0x20; // lower-cases ASCII letters
+    const second = text.charCodeAt(start + 1) | 0x20;
+    if ((first === 0x68 && second === 0x74) || (first === 0x77 && second === 0x77)) return -1; // "ht…", "ww…": maybe a URL
+    let h = this.wordSeed | 0;
+    let pending = 0;
+    let digits = 0;
+    let i = start;
+    while (i < length) {
+      const code = text.charCodeAt(i);
+      const byte = code < 0x80 ? ASCII_WORD_BYTES[code] : 0;
+      if (byte === 0) break;
+      if (byte <= 0x39) digits++;
+      pending |= byte << (((i - start) & 3) << 3);
+      if (((i - start + 1) & 3) === 0) {
+        h = mixBlock(h, pending);
+        pending = 0;
+      }
+      i++;
+    }
+    const bytes = i - start;
+    if (bytes === 0 || this.tokenTotal >= this.maxTokens) return -1;
+    let end = i;
+    if (end < length) {
+      let next = text.charCodeAt(end);
+      if (next === 0x2c || next === 0x2e || next === 0x3b || next === 0x3a) next = ++end < length ? text.charCodeAt(end) : 0x20;
+      if (!(next <= 0x20 || next === 0x7f)) return -1;
+    }
+    const charStart = this.wordCharTotal;
+    if (this.keepWordChars) {
+      while (this.wordChars.length < charStart + bytes) this.growWordChars();
+      for (let c = 0; c < bytes; c++) this.wordChars[charStart + c] = ASCII_WORD_BYTES[text.charCodeAt(start + c)];
+      this.wordCharTotal = charStart + bytes;
+    }
+    if (digits === bytes) {
+      const bucket = Math.min(digits, 5) - 1;
+      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
+    } else if (digits >= 3) {
+      this.addToken(CODE, this.codeHash, -1, -1, "[code]");
+    } else {
+      const name = this.withNames ? String.fromCharCode(...this.wordChars.subarray(charStart, charStart + bytes)) : "";
+      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+      this.addToken(WORD, hash, charStart, charStart + bytes, name);
+    }
+    return end;
   }
 
   /**
@@ -163,9 +230,11 @@ export class Featurizer {
   private readChunk(text: string, start: number, length: number): number {
     let coreStart = start;
     while (coreStart < length && isOpeningBracket(text.charCodeAt(coreStart))) coreStart++;
-    const first = coreStart < length ? lowerAscii(text.charCodeAt(coreStart)) : 0;
-    if (first === 0x68 || first === 0x77) {
-      // "h" or "w": maybe http(s):// or www.
+    // Every URL form read here starts with "ht" or "ww" (a cheap test before scanning the chunk;
+    // `| 0x20` lower-cases ASCII letters, and urlHostOffset below makes the exact check).
+    const first = text.charCodeAt(coreStart) | 0x20;
+    const second = text.charCodeAt(coreStart + 1) | 0x20;
+    if ((first === 0x68 && second === 0x74) || (first === 0x77 && second === 0x77)) {
       const end = chunkEnd(text, coreStart, length);
       const coreEnd = trimTrailingPunctuation(text, coreStart, end);
       const hostStart = urlHostOffset(text, coreStart, coreEnd);
@@ -264,6 +333,7 @@ export class Featurizer {
     let chars = this.wordChars;
     let total = this.wordCharTotal;
     const charStart = total;
+    const keepChars = this.keepWordChars;
     let letters = 0;
     let digits = 0;
     let i = start;
@@ -295,8 +365,10 @@ export class Featurizer {
       } else {
         break;
       }
-      if (total === chars.length) chars = this.growWordChars();
-      chars[total++] = kept;
+      if (keepChars) {
+        if (total === chars.length) chars = this.growWordChars();
+        chars[total++] = kept;
+      }
       if (kept < 0x80) {
         pending |= kept << ((bytes & 3) << 3);
         if ((++bytes & 3) === 0) {
@@ -339,7 +411,7 @@ export class Featurizer {
   }
 
   private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string): void {
-    if (this.tokenTotal >= this.settings.maxTokens) {
+    if (this.tokenTotal >= this.maxTokens) {
       this.hasMoreText = true; // one token past the limit: the text is cut here
       return;
     }
