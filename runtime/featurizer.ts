@@ -93,6 +93,8 @@ export class Featurizer {
   private readonly codeHash: number;
   private readonly emailHash: number;
   private readonly anyUrlHash: number;
+  /** MARK tokens "?", "??", "???", "!", "!!", "!!!" (the fast path's trailing marks). */
+  private readonly markHashes: Uint32Array;
   private readonly stream = new Murmur3Stream();
 
   // Scratch, reused across calls and grown on demand.
@@ -123,6 +125,7 @@ export class Featurizer {
     this.codeHash = murmur3String("[code]", shapeSeed);
     this.emailHash = murmur3String("[email]", shapeSeed);
     this.anyUrlHash = murmur3String("[url]", shapeSeed);
+    this.markHashes = Uint32Array.from(["?", "??", "???", "!", "!!", "!!!"], (mark) => murmur3String(mark, this.wordSeed));
   }
 
   /**
@@ -169,10 +172,11 @@ export class Featurizer {
   plainChunks = true;
 
   /**
-   * Fast path for the most common chunk: ASCII letters and digits, then at most one of
-   * , . ; : and then whitespace or the end of the text. Returns where the chunk ends, or -1,
-   * having changed nothing, when the chunk needs readChunk (anything else, a URL-like start,
-   * or the token limit). It yields exactly the token readChunk would.
+   * Fast path for the most common chunks: one ASCII word (letters and digits, with apostrophes
+   * between letters, as in "can't"), then at most one of , . ; : or a run of ? or !, then
+   * whitespace or the end of the text. Returns where the chunk ends, or -1, having changed
+   * nothing, when the chunk needs readChunk (anything else, a URL-like start, or the token
+   * limit). It yields exactly the tokens readChunk would (test/runtime/featurizer-fast-path.test.ts).
    */
   private readPlainChunk(text: string, start: number, length: number): number {
     const first = text.charCodeAt(start) | 0x20; // lower-cases ASCII letters
@@ -181,34 +185,60 @@ export class Featurizer {
     let h = this.wordSeed | 0;
     let pending = 0;
     let digits = 0;
+    let apostrophes = 0;
+    let previous = 0; // the last byte hashed
     let i = start;
     while (i < length) {
       const code = text.charCodeAt(i);
-      const byte = code < 0x80 ? ASCII_WORD_BYTES[code] : 0;
-      if (byte === 0) break;
-      if (byte <= 0x39) digits++;
+      let byte = code < 0x80 ? ASCII_WORD_BYTES[code] : 0;
+      if (byte === 0) {
+        if (code !== 0x27 || previous < 0x61 || i + 1 >= length) break;
+        // An apostrophe joins two letters; a non-ASCII next character is left to readChunk.
+        const next = text.charCodeAt(i + 1);
+        if (next >= 0x80) return -1;
+        if (ASCII_WORD_BYTES[next] < 0x61) break;
+        byte = 0x27;
+        apostrophes++;
+      } else if (byte <= 0x39) {
+        digits++;
+      }
       pending |= byte << (((i - start) & 3) << 3);
       if (((i - start + 1) & 3) === 0) {
         h = mixBlock(h, pending);
         pending = 0;
       }
+      previous = byte;
       i++;
     }
     const bytes = i - start;
-    if (bytes === 0 || this.tokenTotal >= this.maxTokens) return -1;
+    if (bytes === 0) return -1;
     let end = i;
+    let markCode = 0;
+    let markRepeats = 0;
     if (end < length) {
       let next = text.charCodeAt(end);
-      if (next === 0x2c || next === 0x2e || next === 0x3b || next === 0x3a) next = ++end < length ? text.charCodeAt(end) : 0x20;
+      if (next === 0x2c || next === 0x2e || next === 0x3b || next === 0x3a) {
+        next = ++end < length ? text.charCodeAt(end) : 0x20;
+      } else if (next === 0x3f || next === 0x21) {
+        markCode = next;
+        const runStart = end;
+        while (end < length && text.charCodeAt(end) === markCode) end++;
+        markRepeats = Math.min(end - runStart, 3);
+        next = end < length ? text.charCodeAt(end) : 0x20;
+      }
       if (!(next <= 0x20 || next === 0x7f)) return -1;
     }
+    if (this.tokenTotal + (markCode === 0 ? 1 : 2) > this.maxTokens) return -1;
     const charStart = this.wordCharTotal;
     if (this.keepWordChars) {
       while (this.wordChars.length < charStart + bytes) this.growWordChars();
-      for (let c = 0; c < bytes; c++) this.wordChars[charStart + c] = ASCII_WORD_BYTES[text.charCodeAt(start + c)];
+      for (let c = 0; c < bytes; c++) {
+        const code = text.charCodeAt(start + c);
+        this.wordChars[charStart + c] = code === 0x27 ? 0x27 : ASCII_WORD_BYTES[code];
+      }
       this.wordCharTotal = charStart + bytes;
     }
-    if (digits === bytes) {
+    if (digits + apostrophes === bytes) {
       const bucket = Math.min(digits, 5) - 1;
       this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
     } else if (digits >= 3) {
@@ -217,6 +247,10 @@ export class Featurizer {
       const name = this.withNames ? String.fromCharCode(...this.wordChars.subarray(charStart, charStart + bytes)) : "";
       const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
       this.addToken(WORD, hash, charStart, charStart + bytes, name);
+    }
+    if (markCode !== 0) {
+      const hash = this.markHashes[(markCode === 0x3f ? 0 : 3) + markRepeats - 1];
+      this.addToken(MARK, hash, -1, -1, this.withNames ? String.fromCharCode(markCode).repeat(markRepeats) : "");
     }
     return end;
   }
