@@ -52,14 +52,19 @@ export class SlotIndex {
     if (buckets[0] !== 0) return "the first bucket must start at row 0";
     if (buckets[buckets.length - 1] !== keys.length) return "the last bucket must end at the row count";
     const limit = lowBits === 0 ? 1 : 1 << lowBits;
+    // One pass over the rows: keys must rise strictly inside each bucket and stay below the
+    // limit. `floor` is the smallest key the next row may hold (0 at each bucket start).
+    let row = 0;
     for (let b = 0; b + 1 < buckets.length; b++) {
-      const start = buckets[b];
       const end = buckets[b + 1];
-      if (end < start) return `bucket ${b} ends before it starts`;
-      for (let row = start; row < end; row++) {
-        if (keys[row] >= limit) return `row ${row} has a key beyond ${lowBits} bits`;
-        if (row > start && keys[row] <= keys[row - 1]) return `keys of bucket ${b} are not strictly increasing`;
+      if (end < row) return `bucket ${b} ends before it starts`;
+      let floor = 0;
+      for (; row < end; row++) {
+        const key = keys[row];
+        if (key < floor) return key >= limit ? `row ${row} has a key beyond ${lowBits} bits` : `keys of bucket ${b} are not strictly increasing`;
+        floor = key + 1;
       }
+      if (floor > limit) return `row ${row - 1} has a key beyond ${lowBits} bits`;
     }
     return null;
   }
