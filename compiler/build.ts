@@ -11,10 +11,10 @@ import type { Model } from "../runtime/model.ts";
 import type { BuildSettings } from "./build-settings.ts";
 import { choosePolicy, type PolicyReport } from "./compile/choose-policy.ts";
 import { fitCalibration } from "./compile/calibrate.ts";
-import { findLeaks, leakWarning, trainingFingerprint, type LeakFindings } from "./compile/text-fingerprints.ts";
+import { leakWarning, TrainingTextCollector, type LeakFindings } from "./compile/text-fingerprints.ts";
 import { chooseSigmoidThresholds } from "./compile/sigmoid-thresholds.ts";
 import { huffmanTree, treePaths } from "./compile/huffman.ts";
-import { rowImportance, selectRows, subsetDraft } from "./compile/prune.ts";
+import { rankRows, rowImportance, selectRows, subsetDraft } from "./compile/prune.ts";
 import { dequantizeRows, quantizeRows } from "./compile/quantize.ts";
 import { foldOutputLayer, shouldFoldOutput } from "./compile/fold-output.ts";
 import { sectionSizes, writeModel, type ModelContents } from "./compile/write-model.ts";
@@ -90,8 +90,10 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   const labelIndex = new Map(labels.map((label, i) => [label, i]));
   const { train, validation } = splitExamples(input, labelIndex, warnings);
   // Leakage: a validation text that also appears in training makes validation optimistic.
-  const trainTexts = train.map((e) => e.text);
-  const leaks = findLeaks(trainTexts, validation.map((e) => e.text));
+  // One pass over the training texts serves both the exact check and the stored fingerprint.
+  const trainTexts = new TrainingTextCollector();
+  for (const example of train) trainTexts.add(example.text);
+  const leaks = trainTexts.findLeaks(validation.map((e) => e.text));
   const leak = leakWarning(leaks, "validation");
   if (leak !== null) warnings.push(leak);
   if (validation.length === 0) warnings.push("no validation data (holdout 0 and no --validation): metrics below are not measured on held-out data");
@@ -100,7 +102,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   const featurizer = createFeaturizer(featurizerSettings);
   const encoded = encodeTexts(featurizer, train.map((e) => e.text), train.map((e) => e.labels.map((l) => labelIndex.get(l) as number)));
   const source = memorySource(encoded, labels.length, settings.hashBits);
-  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings, leaks, trainFingerprint: settings.fingerprint ? trainingFingerprint(trainTexts) : undefined });
+  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings, leaks, trainFingerprint: settings.fingerprint ? trainTexts.fingerprint() : undefined });
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
@@ -155,13 +157,13 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   const draftQuality = validation.length > 0 ? quality(evaluateModel(draftModel, validation)) : { accuracy: NaN, macroF1: NaN };
 
   // Compile: prune to the budget, quantize, retrain the output layer on what survives.
-  const importance = rowImportance(draft);
+  const ranking = rankRows(rowImportance(draft));
   const rowSpace = shouldFoldOutput(settings.foldOutput, head, header.outputCount, settings.dims) ? "logits" : "hidden";
-  const compile = (keep: number) => compileDraft(draft, importance, keep, source, settings, header, paths, rowSpace);
+  const compile = (keep: number) => compileDraft(draft, ranking, keep, source, settings, header, paths, rowSpace);
   // Decide the row count first, then prune, quantize and fine-tune once.
   let keep = settings.keepFeatures > 0 ? Math.min(settings.keepFeatures, draft.slots.length) : draft.slots.length;
   if (settings.maxBytes > 0) {
-    const fit = fitRowsToBudget(draft, importance, settings, header, keep, rowSpace);
+    const fit = fitRowsToBudget(draft, ranking, settings, header, keep, rowSpace);
     if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
     keep = fit;
   }
@@ -353,8 +355,8 @@ function contentsOf(draft: Draft, header: HeaderBase, precision: "int8" | "float
 }
 
 /** Prune to `keep` rows, quantize them, retrain the output layer on exactly those rows. */
-async function compileDraft(draft: Draft, importance: Float64Array, keep: number, source: TrainingSource, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null, rowSpace: "hidden" | "logits") {
-  const pruned = subsetDraft(draft, selectRows(importance, keep));
+async function compileDraft(draft: Draft, ranking: Int32Array, keep: number, source: TrainingSource, settings: BuildSettings, header: HeaderBase, paths: ReturnType<typeof treePaths> | null, rowSpace: "hidden" | "logits") {
+  const pruned = subsetDraft(draft, selectRows(ranking, keep));
   let frozen: { values: Int8Array; scales: Float32Array } | null = null;
   if (settings.precision === "int8") {
     frozen = quantizeRows(pruned.rows, pruned.dims);
@@ -372,10 +374,10 @@ function rowBytes(settings: BuildSettings, width: number): number {
 }
 
 /** The largest row count (≤ upper) whose compiled file fits the byte budget, by bisection on real writes. */
-function fitRowsToBudget(draft: Draft, importance: Float64Array, settings: BuildSettings, header: HeaderBase, upper: number, rowSpace: "hidden" | "logits"): number | null {
+function fitRowsToBudget(draft: Draft, ranking: Int32Array, settings: BuildSettings, header: HeaderBase, upper: number, rowSpace: "hidden" | "logits"): number | null {
   // Reserve room for the metrics and policy written into the header later.
   const budget = settings.maxBytes - 2048 - 64 * draft.labels.length;
-  const sizeWith = (keep: number) => writeModel(contentsOf(subsetDraft(draft, selectRows(importance, keep)), header, settings.precision, null, rowSpace)).length;
+  const sizeWith = (keep: number) => writeModel(contentsOf(subsetDraft(draft, selectRows(ranking, keep)), header, settings.precision, null, rowSpace)).length;
   if (sizeWith(0) > budget) return null;
   if (sizeWith(upper) <= budget) return upper;
   let low = 0;

@@ -28,16 +28,19 @@ export function rowImportance(draft: Draft): Float64Array {
 }
 
 /**
- * Row ids of the `keep` most important rows, ascending (so slots stay sorted).
- * Ties break toward the lower row id, keeping the result deterministic.
+ * Row ids, most important first; ties break toward the lower row id, keeping every
+ * selection deterministic. Computed once per build: a size budget tries several row counts.
  */
-export function selectRows(importance: Float64Array, keep: number): Int32Array {
-  const rowCount = importance.length;
-  if (keep >= rowCount) return Int32Array.from({ length: rowCount }, (_, i) => i);
-  const order = Int32Array.from({ length: rowCount }, (_, i) => i);
+export function rankRows(importance: Float64Array): Int32Array {
+  const order = Int32Array.from({ length: importance.length }, (_, i) => i);
   order.sort((a, b) => importance[b] - importance[a] || a - b);
-  const kept = order.slice(0, keep);
-  kept.sort();
+  return order;
+}
+
+/** Row ids of the `keep` highest-ranked rows, ascending (so slots stay sorted). */
+export function selectRows(ranking: Int32Array, keep: number): Int32Array {
+  const kept = ranking.slice(0, Math.min(keep, ranking.length));
+  kept.sort(); // numeric order: a typed array sorts by value
   return kept;
 }
 

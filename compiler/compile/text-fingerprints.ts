@@ -26,7 +26,7 @@
 //   u8 layout version (1) | u8 k | u16 reserved (0) | u32 texts inserted n | u32 sampleMax | bit array
 // bit j of the array is byte (j >> 3), bit (j & 7); m = 8 × (length − 12).
 
-import { murmur3String } from "../../runtime/murmur3.ts";
+import { murmur3Bytes } from "../../runtime/murmur3.ts";
 import { normalizeText } from "../../runtime/normalize.ts";
 
 /** Version byte of the fingerprint layout above. */
@@ -101,9 +101,10 @@ export class TrainingTextCollector {
       this.hashes = grown;
     }
     const at = 3 * this.added;
-    this.hashes[at] = murmur3String(normalized, SEED_FIRST);
-    this.hashes[at + 1] = murmur3String(normalized, SEED_SECOND);
-    this.hashes[at + 2] = murmur3String(normalized, SEED_SAMPLE);
+    const bytes = utf8Of(normalized);
+    this.hashes[at] = murmur3Bytes(bytes, SEED_FIRST);
+    this.hashes[at + 1] = murmur3Bytes(bytes, SEED_SECOND);
+    this.hashes[at + 2] = murmur3Bytes(bytes, SEED_SAMPLE);
     this.added++;
     this.sorted = null;
   }
@@ -139,8 +140,8 @@ export class TrainingTextCollector {
     const samples: string[] = [];
     let count = 0;
     for (const text of evaluated) {
-      const normalized = fingerprintText(text);
-      if (!containsSorted(keys, keyOf(murmur3String(normalized, SEED_FIRST), murmur3String(normalized, SEED_SECOND)))) continue;
+      const bytes = utf8Of(fingerprintText(text));
+      if (!containsSorted(keys, keyOf(murmur3Bytes(bytes, SEED_FIRST), murmur3Bytes(bytes, SEED_SECOND)))) continue;
       count++;
       if (samples.length < 3) samples.push(text);
     }
@@ -197,7 +198,7 @@ export function readTrainingFingerprint(value: unknown): TrainingFingerprint | n
  * @example fingerprintCovers(fingerprint, "Where is my parcel?") // true for small training sets
  */
 export function fingerprintCovers(fingerprint: TrainingFingerprint, text: string): boolean {
-  return fingerprint.sampleMax === ALL_TEXTS || murmur3String(fingerprintText(text), SEED_SAMPLE) <= fingerprint.sampleMax;
+  return fingerprint.sampleMax === ALL_TEXTS || murmur3Bytes(utf8Of(fingerprintText(text)), SEED_SAMPLE) <= fingerprint.sampleMax;
 }
 
 /**
@@ -208,9 +209,9 @@ export function fingerprintCovers(fingerprint: TrainingFingerprint, text: string
  */
 export function fingerprintMayContain(fingerprint: TrainingFingerprint, text: string): boolean {
   if (!fingerprintCovers(fingerprint, text)) return false;
-  const normalized = fingerprintText(text);
+  const bytes = utf8Of(fingerprintText(text));
   let all = true;
-  forEachPosition(murmur3String(normalized, SEED_FIRST), murmur3String(normalized, SEED_SECOND), fingerprint.hashes, fingerprint.bitCount, (position) => {
+  forEachPosition(murmur3Bytes(bytes, SEED_FIRST), murmur3Bytes(bytes, SEED_SECOND), fingerprint.hashes, fingerprint.bitCount, (position) => {
     if ((fingerprint.bits[position >>> 3] & (1 << (position & 7))) === 0) all = false;
   });
   return all;
@@ -265,6 +266,33 @@ export function leakWarning(leaks: LeakFindings, evaluatedName: string): string 
   if (leaks.count === 0) return null;
   const samples = leaks.samples.map((text) => JSON.stringify(preview(text))).join(", ");
   return `${leaks.count} ${evaluatedName} example${leaks.count === 1 ? "" : "s"} also appear${leaks.count === 1 ? "s" : ""} in the training data (same text after normalization), so their metrics are optimistic; e.g. ${samples}`;
+}
+
+const encoder = new TextEncoder();
+const LONE_SURROGATE = /[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/;
+
+/**
+ * The UTF-8 bytes murmur3String hashes, from the platform's encoder (several times faster on
+ * long texts). The encoder writes a lone surrogate as U+FFFD where murmur3String writes its
+ * 3-byte code unit, so such (malformed) texts take the slow path and hash as before.
+ */
+export function utf8Of(text: string): Uint8Array {
+  if (!LONE_SURROGATE.test(text)) return encoder.encode(text);
+  const units: number[] = [];
+  for (let i = 0; i < text.length; i++) {
+    const code = text.charCodeAt(i);
+    if (code >= 0xd800 && code < 0xdc00 && i + 1 < text.length) {
+      const low = text.charCodeAt(i + 1);
+      if (low >= 0xdc00 && low < 0xe000) {
+        units.push(...encoder.encode(text.slice(i, i + 2)));
+        i++;
+        continue;
+      }
+    }
+    if (code >= 0xd800 && code < 0xe000) units.push(0xe0 | (code >>> 12), 0x80 | ((code >>> 6) & 0x3f), 0x80 | (code & 0x3f));
+    else units.push(...encoder.encode(text[i]));
+  }
+  return Uint8Array.from(units);
 }
 
 // The k bit positions of a text from its two hashes: g_i = (h1 + i·h2) mod m. Computed in
