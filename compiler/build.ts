@@ -377,15 +377,53 @@ function rowBytes(settings: BuildSettings, width: number): number {
 function fitRowsToBudget(draft: Draft, ranking: Int32Array, settings: BuildSettings, header: HeaderBase, upper: number, rowSpace: "hidden" | "logits"): number | null {
   // Reserve room for the metrics and policy written into the header later.
   const budget = settings.maxBytes - 2048 - 64 * draft.labels.length;
-  const sizeWith = (keep: number) => writeModel(contentsOf(subsetDraft(draft, selectRows(ranking, keep)), header, settings.precision, null, rowSpace)).length;
-  if (sizeWith(0) > budget) return null;
-  if (sizeWith(upper) <= budget) return upper;
+  // A file's size depends on its row count and layout, not on its values: measure writes of
+  // zero-filled contents instead of pruning, folding and quantizing at every probe.
+  const int8 = settings.precision === "int8";
+  const width = rowSpace === "logits" ? draft.outputCount : draft.dims;
+  const sizeWith = (keep: number) => {
+    const kept = selectRows(ranking, keep);
+    const slots = Uint32Array.from(kept, (row) => draft.slots[row]);
+    const hidden = rowSpace === "hidden";
+    return writeModel({
+      header: { ...header, precision: settings.precision, rowSpace },
+      slots,
+      rows: int8 ? new Int8Array(kept.length * width) : new Float32Array(kept.length * width),
+      rowScales: int8 ? new Float32Array(kept.length) : null,
+      rowWeights: draft.rowWeights ? new Float32Array(kept.length) : null,
+      outputWeights: hidden ? (int8 ? new Int8Array(draft.outputs.length) : new Float32Array(draft.outputs.length)) : null,
+      outputScales: hidden && int8 ? new Float32Array(draft.outputCount) : null,
+      outputBias: new Float32Array(draft.outputCount),
+      tree: draft.tree,
+    }).length;
+  };
+  let lowSize = sizeWith(0);
+  if (lowSize > budget) return null;
+  let highSize = sizeWith(upper);
+  if (highSize <= budget) return upper;
+  // Size grows almost linearly with the row count, so guess by interpolation (a few probes
+  // instead of ten), falling back to the midpoint whenever a guess would not narrow the range.
   let low = 0;
   let high = upper;
   while (high - low > Math.max(1, upper >> 10)) {
-    const middle = (low + high) >>> 1;
-    if (sizeWith(middle) <= budget) low = middle;
-    else high = middle;
+    let guess = low + Math.floor(((budget - lowSize) / (highSize - lowSize)) * (high - low));
+    if (guess <= low || guess >= high) guess = (low + high) >>> 1;
+    const size = sizeWith(guess);
+    if (size <= budget) {
+      low = guess;
+      lowSize = size;
+      // The next probe just above the guess usually settles it.
+      const step = Math.max(1, upper >> 10);
+      if (guess + step < high) {
+        const above = sizeWith(guess + step);
+        if (above > budget) return guess;
+        low = guess + step;
+        lowSize = above;
+      }
+    } else {
+      high = guess;
+      highSize = size;
+    }
   }
   return low;
 }

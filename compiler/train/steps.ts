@@ -110,6 +110,13 @@ function updateRows(draft: Draft, features: Uint32Array, start: number, end: num
  */
 export function softmaxStep(draft: Draft, features: Uint32Array, start: number, end: number, gold: number, learningRate: number, s: StepScratch, trainRows = true): number {
   const totalWeight = computeHidden(draft, features, start, end, s.hidden);
+  const loss = softmaxOutputStep(draft, gold, learningRate, s);
+  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  return loss;
+}
+
+/** The output half of softmaxStep, from the hidden vector in `s.hidden` (fills s.gradHidden). */
+export function softmaxOutputStep(draft: Draft, gold: number, learningRate: number, s: StepScratch): number {
   const count = draft.outputCount;
   let max = -Infinity;
   for (let k = 0; k < count; k++) {
@@ -124,13 +131,19 @@ export function softmaxStep(draft: Draft, features: Uint32Array, start: number, 
   for (let k = 0; k < count; k++) s.gradLogits[k] = Math.exp(s.logits[k] - logSum) - (k === gold ? 1 : 0);
   s.gradHidden.fill(0);
   for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s);
-  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
   return loss;
 }
 
 /** Independent sigmoids with binary cross-entropy, gold labels in labels[labelStart, labelEnd). */
 export function sigmoidStep(draft: Draft, features: Uint32Array, start: number, end: number, labels: Int32Array, labelStart: number, labelEnd: number, learningRate: number, s: StepScratch, trainRows = true): number {
   const totalWeight = computeHidden(draft, features, start, end, s.hidden);
+  const loss = sigmoidOutputStep(draft, labels, labelStart, labelEnd, learningRate, s);
+  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  return loss;
+}
+
+/** The output half of sigmoidStep, from the hidden vector in `s.hidden`. */
+export function sigmoidOutputStep(draft: Draft, labels: Int32Array, labelStart: number, labelEnd: number, learningRate: number, s: StepScratch): number {
   const count = draft.outputCount;
   let loss = 0;
   for (let k = 0; k < count; k++) {
@@ -144,13 +157,19 @@ export function sigmoidStep(draft: Draft, features: Uint32Array, start: number, 
   }
   s.gradHidden.fill(0);
   for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s);
-  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
   return loss;
 }
 
 /** Hierarchical softmax: binary logistic losses along the gold label's path only. */
 export function treeStep(draft: Draft, features: Uint32Array, start: number, end: number, gold: number, paths: TreePaths, learningRate: number, s: StepScratch, trainRows = true): number {
   const totalWeight = computeHidden(draft, features, start, end, s.hidden);
+  const loss = treeOutputStep(draft, gold, paths, learningRate, s);
+  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  return loss;
+}
+
+/** The output half of treeStep, from the hidden vector in `s.hidden`. */
+export function treeOutputStep(draft: Draft, gold: number, paths: TreePaths, learningRate: number, s: StepScratch): number {
   const pathStart = paths.offsets[gold];
   const pathEnd = paths.offsets[gold + 1];
   let loss = 0;
@@ -163,6 +182,5 @@ export function treeStep(draft: Draft, features: Uint32Array, start: number, end
   }
   s.gradHidden.fill(0);
   for (let p = pathStart; p < pathEnd; p++) updateOutput(draft, paths.nodes[p], s.gradLogits[p - pathStart], learningRate, s);
-  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
   return loss;
 }

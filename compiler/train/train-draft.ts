@@ -4,7 +4,7 @@
 import type { Draft } from "./draft.ts";
 import type { EncodedExamples } from "./encode.ts";
 import { createRandom, shuffleInPlace, type RandomSource } from "./random.ts";
-import { createStepScratch, sigmoidStep, softmaxStep, treeStep, type TreePaths } from "./steps.ts";
+import { computeHidden, createStepScratch, sigmoidOutputStep, sigmoidStep, softmaxOutputStep, softmaxStep, treeOutputStep, treeStep, type TreePaths } from "./steps.ts";
 
 export interface TrainSettings {
   epochs: number;
@@ -65,6 +65,11 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
   let reportCount = 0;
   let epochLoss = 0;
   const { offsets, features, labelOffsets, labelList } = data;
+  // With the rows frozen (fine-tuning the output layer) every example's hidden vector is the
+  // same in every epoch: compute each once, then each step only does the output half. (One
+  // epoch, as the on-disk path runs per shard, gains nothing from it.)
+  const frozenHidden = trainRows || settings.epochs < 2 ? null : hiddenVectors(draft, data, order);
+  const dims = draft.dims;
   for (let epoch = 0; epoch < settings.epochs; epoch++) {
     shuffleInPlace(order, random);
     epochLoss = 0;
@@ -76,7 +81,12 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
       const end = offsets[example + 1];
       const labelStart = labelOffsets[example];
       let loss: number;
-      if (draft.head === "softmax") {
+      if (frozenHidden !== null) {
+        scratch.hidden.set(frozenHidden.subarray(example * dims, (example + 1) * dims));
+        if (draft.head === "softmax") loss = softmaxOutputStep(draft, labelList[labelStart], learningRate, scratch);
+        else if (draft.head === "sigmoid") loss = sigmoidOutputStep(draft, labelList, labelStart, labelOffsets[example + 1], learningRate, scratch);
+        else loss = treeOutputStep(draft, labelList[labelStart], options.paths as TreePaths, learningRate, scratch);
+      } else if (draft.head === "softmax") {
         loss = softmaxStep(draft, features, start, end, labelList[labelStart], learningRate, scratch, trainRows);
       } else if (draft.head === "sigmoid") {
         loss = sigmoidStep(draft, features, start, end, labelList, labelStart, labelOffsets[example + 1], learningRate, scratch, trainRows);
@@ -111,4 +121,16 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
     tokensPerSecond: (settings.epochs * count * tokensPerExample) / Math.max(seconds, 1e-9),
     finalLoss: count > 0 ? epochLoss / count : 0,
   };
+}
+
+/** Hidden vectors (count × dims) of the examples in `order`, from the draft's current rows. */
+function hiddenVectors(draft: Draft, data: EncodedExamples, order: Int32Array): Float64Array {
+  const dims = draft.dims;
+  const vectors = new Float64Array(data.count * dims);
+  const hidden = new Float64Array(dims);
+  for (const example of order) {
+    computeHidden(draft, data.features, data.offsets[example], data.offsets[example + 1], hidden);
+    vectors.set(hidden, example * dims);
+  }
+  return vectors;
 }

@@ -12,8 +12,9 @@ import {
   summarizeTrainingFingerprint,
   trainingFingerprint,
   TrainingTextCollector,
+  utf8Of,
 } from "../../../compiler/compile/text-fingerprints.ts";
-import { murmur3String } from "../../../runtime/murmur3.ts";
+import { murmur3Bytes, murmur3String } from "../../../runtime/murmur3.ts";
 
 const members = Array.from({ length: 2000 }, (_, i) => `order ${i} arrived damaged, please send a replacement`);
 const strangers = Array.from({ length: 20000 }, (_, i) => `where is parcel number ${i}?`);
@@ -23,6 +24,17 @@ describe("fingerprintText", () => {
     // NFKC maps fullwidth forms to ASCII (Unicode Standard Annex #15, compatibility decomposition);
     // the tokenizer lower-cases, so the model cannot tell these apart either.
     expect(fingerprintText("  ＦＲＥＥ\tGift\n\ncard ")).toBe("free gift card");
+  });
+});
+
+describe("utf8Of", () => {
+  it("gives the bytes murmur3String hashes, so fingerprints of older models still match", () => {
+    // murmur3String is pinned to MurmurHash3's published vectors in test/runtime/murmur3.test.ts;
+    // the platform's UTF-8 encoder must feed murmur3Bytes the same bytes, lone surrogates included.
+    for (const text of ["", "refund please", "café ＦＲＥＥ 😩", "lone \ud83d high", "lone \ude29 low", "\udc00\ud800"]) {
+      expect(murmur3Bytes(utf8Of(text), 7)).toBe(murmur3String(text, 7));
+    }
+    fc.assert(fc.property(fc.string({ unit: "binary", maxLength: 40 }), (text) => murmur3Bytes(utf8Of(text), 1) === murmur3String(text, 1)), { numRuns: 2000 });
   });
 });
 
