@@ -66,9 +66,13 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   hashBits: { flag: "--hash-bits", kind: "int", min: 10, max: 26, default: 20, description: "size of the hashed feature space, 2^N slots" },
   hashSeed: { flag: "--hash-seed", kind: "int", min: 0, max: 0xffffffff, default: 0, description: "seed of the feature hash" },
   minDocs: { flag: "--min-docs", kind: "int", min: 1, max: 1_000_000, default: 2, description: "ignore features seen in fewer than N training examples" },
-  weighting: { flag: "--weighting", kind: "enum", values: ["mean", "tfidf"], default: "mean", description: "how feature rows are combined" },
+  // TF-IDF and 5 epochs by default: in 5-fold cross-validation on the training parts of the
+  // demo topics, the contact form and SpamAssassin they beat mean weighting and 10 epochs on
+  // all three (0.9671 vs 0.9619, 0.9684 vs 0.9670, 0.9840 vs 0.9811 accuracy) in half the
+  // training time; 10 epochs with TF-IDF scored 0.9630, 0.9674, 0.9852 (README, "Defaults").
+  weighting: { flag: "--weighting", kind: "enum", values: ["mean", "tfidf"], default: "tfidf", description: "how feature rows are combined: tfidf weighs each row by its inverse document frequency" },
   head: { flag: "--head", kind: "enum", values: ["auto", "softmax", "sigmoid", "tree"], default: "auto", description: "output layer (auto: sigmoid for several labels per example, tree for large label sets, else softmax)" },
-  epochs: { flag: "--epochs", kind: "int", min: 1, max: 1000, default: 10, description: "passes over the training data" },
+  epochs: { flag: "--epochs", kind: "int", min: 1, max: 1000, default: 5, description: "passes over the training data" },
   learningRate: { flag: "--learning-rate", kind: "float", min: 1e-6, max: 10, default: 0.5, description: "initial SGD learning rate (decays linearly to zero)" },
   threads: { flag: "--threads", kind: "int", min: 1, max: 64, default: 1, description: "training threads (1 is deterministic)" },
   seed: { flag: "--seed", kind: "int", min: 0, max: 0xffffffff, default: 1, description: "seed for the split, shuffling and initialization" },

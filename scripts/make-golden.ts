@@ -15,7 +15,8 @@ const examples = [
   { text: "parcel tracking has not moved", labels: ["shipping"] },
   { text: "delivery is late again", labels: ["shipping"] },
 ];
-const settings = { ...defaultBuildSettings(), dims: 4, hashBits: 12, charSpan: [0, 0] as [number, number], epochs: 20, holdout: 0, calibrate: false, minDocs: 1, fineTuneEpochs: 1 };
+// Every setting the file depends on is spelled out, so the script reproduces it whatever the defaults become.
+const settings = { ...defaultBuildSettings(), weighting: "mean" as const, dims: 4, hashBits: 12, charSpan: [0, 0] as [number, number], epochs: 20, holdout: 0, calibrate: false, minDocs: 1, fineTuneEpochs: 1 };
 const { bytes } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z", dataName: "golden-inline" });
 writeFileSync(new URL("../test/fixtures/golden/tiny-v2.sluice", import.meta.url), bytes);
 console.log(`wrote test/fixtures/golden/tiny-v2.sluice (${bytes.length} bytes)`);
