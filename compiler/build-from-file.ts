@@ -32,6 +32,7 @@ export interface FileBuildInput extends Omit<BuildInput, "examples" | "validatio
  * @example await buildFromFile({ path: "big.jsonl", readOptions: {}, settings, buildTime })
  */
 export async function buildFromFile(input: FileBuildInput): Promise<{ bytes: Uint8Array; report: BuildReport }> {
+  const started = performance.now();
   const { settings } = input;
   const featurizerSettings = featurizerSettingsOf(settings);
   const featurizer = createFeaturizer(featurizerSettings);
@@ -114,6 +115,7 @@ export async function buildFromFile(input: FileBuildInput): Promise<{ bytes: Uin
         warnings,
         leaks,
         trainFingerprint: settings.fingerprint ? collector.fingerprint() : undefined,
+        prepareSeconds: (performance.now() - started) / 1000,
       });
     } finally {
       source.dispose();

@@ -51,6 +51,19 @@ export interface Quality {
   macroF1: number;
 }
 
+export interface StageSeconds {
+  /** Splitting, the leak check and fingerprint, featurizing the training texts (in-memory builds). */
+  prepare: number;
+  /** Training the float draft (the SGD epochs). */
+  train: number;
+  /** Measuring the draft, pruning, quantizing, fine-tuning the output layer, folding. */
+  compile: number;
+  /** Temperature scaling, sigmoid thresholds and the policy, on the validation split. */
+  calibrate: number;
+  /** Validation metrics of what ships, the final write and the round-trip check. */
+  verify: number;
+}
+
 export interface BuildReport {
   bytes: number;
   head: HeadKind;
@@ -59,6 +72,8 @@ export interface BuildReport {
   trainExamples: number;
   validationExamples: number;
   trainSeconds: number;
+  /** Wall-clock seconds of each stage: where a build's time goes. */
+  stageSeconds: StageSeconds;
   tokensPerSecond: number;
   finalLoss: number;
   rows: { seen: number; kept: number };
@@ -78,6 +93,7 @@ export interface BuildReport {
  * const { bytes, report } = await build({ examples, settings: defaultBuildSettings(), buildTime: new Date().toISOString() });
  */
 export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; report: BuildReport }> {
+  const started = performance.now();
   const { settings } = input;
   const warnings: string[] = [];
   const say = (message: string) => input.onMessage?.(message);
@@ -102,7 +118,8 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   const featurizer = createFeaturizer(featurizerSettings);
   const encoded = encodeTexts(featurizer, train.map((e) => e.text), train.map((e) => e.labels.map((l) => labelIndex.get(l) as number)));
   const source = memorySource(encoded, labels.length, settings.hashBits);
-  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings, leaks, trainFingerprint: settings.fingerprint ? trainTexts.fingerprint() : undefined });
+  const trainFingerprint = settings.fingerprint ? trainTexts.fingerprint() : undefined;
+  return compileFromSource({ input, source, labels, head, headReason, validation, featurizerSettings, warnings, leaks, trainFingerprint, prepareSeconds: (performance.now() - started) / 1000 });
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
@@ -119,12 +136,15 @@ export interface SourceBuild {
   leaks?: LeakFindings;
   /** Bloom filter of the training texts, so `eval` can warn about overlap later. */
   trainFingerprint?: Uint8Array;
+  /** Seconds spent before this call (reading, splitting, encoding), for the report. */
+  prepareSeconds?: number;
 }
 
 /** Train the draft from a source, then compile, calibrate, choose the policy and write. */
 export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint8Array; report: BuildReport }> {
   const { input, source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
   const { settings } = input;
+  const clock = stageClock(job.prepareSeconds ?? 0);
   const say = (message: string) => input.onMessage?.(message);
   const labelIndex = new Map(labels.map((label, i) => [label, i]));
   const vocabulary = source.vocabulary(settings.hashBits, settings.minDocs);
@@ -145,7 +165,9 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   });
   say(`training: ${source.count} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
   const trainSettings = { epochs: settings.epochs, learningRate: settings.learningRate, seed: settings.seed };
+  clock.lap("prepare");
   const trained = await source.train(draft, trainSettings, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
+  clock.lap("train");
 
   const header = baseHeader(input, head, labels, featurizerSettings, source.count);
   if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
@@ -168,6 +190,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     keep = fit;
   }
   let compiled = await compile(keep);
+  clock.lap("compile");
 
   // Calibrate and choose the policy on the validation split, with the compiled model.
   let calibration: BuildReport["calibration"] = null;
@@ -189,6 +212,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     compiled.contents.header.policy = policy;
     compiled.contents.header.thresholds = thresholds;
   }
+  clock.lap("calibrate");
 
   // Measure what ships, record it in the header, write the final bytes.
   const shipped = loadModel(writeModel(compiled.contents));
@@ -218,6 +242,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     }
   }
   verifyRoundTrip(bytes, shipped, validationTexts.slice(0, 50), head);
+  clock.lap("verify");
   const report: BuildReport = {
     bytes: bytes.length,
     head,
@@ -226,6 +251,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     trainExamples: source.count,
     validationExamples: validation.length,
     trainSeconds: trained.seconds,
+    stageSeconds: clock.seconds,
     tokensPerSecond: trained.tokensPerSecond,
     finalLoss: trained.finalLoss,
     rows: { seen: draft.slots.length, kept: compiled.contents.slots.length },
@@ -241,6 +267,20 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     warnings,
   };
   return { bytes, report };
+}
+
+/** Adds the time since the previous lap to a stage (the first lap includes what came before). */
+function stageClock(before: number) {
+  const seconds: StageSeconds = { prepare: before, train: 0, compile: 0, calibrate: 0, verify: 0 };
+  let last = performance.now();
+  return {
+    seconds,
+    lap(stage: keyof StageSeconds) {
+      const now = performance.now();
+      seconds[stage] += (now - last) / 1000;
+      last = now;
+    },
+  };
 }
 
 function collectLabels(examples: readonly LabelledText[]): string[] {

@@ -86,6 +86,19 @@ describe("build", () => {
     expect(loadModel(bytes).meta.rowCount).toBe(report.rows.kept);
   });
 
+  it("reports where its time goes: five stages that add up to the whole build", async () => {
+    const started = performance.now();
+    const { report } = await build({ examples: subset, settings: quickSettings({}), buildTime: BUILD_TIME });
+    const wall = (performance.now() - started) / 1000;
+    const stages = report.stageSeconds;
+    expect(Object.keys(stages)).toEqual(["prepare", "train", "compile", "calibrate", "verify"]);
+    for (const seconds of Object.values(stages)) expect(seconds).toBeGreaterThanOrEqual(0);
+    const sum = Object.values(stages).reduce((a, b) => a + b, 0);
+    expect(sum).toBeLessThanOrEqual(wall + 1e-3);
+    expect(sum).toBeGreaterThan(wall * 0.9 - 0.01); // only the call itself lies outside the stages
+    expect(stages.train).toBeCloseTo(report.trainSeconds, 1);
+  });
+
   it("keeps at most 500 rows when asked to keep 500 features", async () => {
     const { bytes, report } = await build({ examples: subset, settings: quickSettings({ keepFeatures: 500 }), buildTime: BUILD_TIME });
     expect(report.rows.seen).toBeGreaterThan(500);

@@ -127,6 +127,7 @@ function describeBuild(out: string, report: BuildReport): string {
     `wrote ${out}: ${report.bytes} bytes, ${report.head} head over ${report.labels.length} labels (${report.headReason})`,
     `trained on ${report.trainExamples} examples in ${report.trainSeconds.toFixed(2)} s (${(report.tokensPerSecond / 1e6).toFixed(2)}M tokens/s); validated on ${report.validationExamples}`,
     `feature rows: ${report.rows.kept} kept of ${report.rows.seen}`,
+    `time: ${Object.entries(report.stageSeconds).map(([stage, seconds]) => `${stage} ${seconds.toFixed(2)} s`).join(", ")}`,
     "",
     formatTable(
       ["model", "accuracy", "macro-F1", "bytes"],
