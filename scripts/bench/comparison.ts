@@ -229,8 +229,9 @@ async function sluiceRow(dataset: Dataset, plan: Plan, system: string, role: Sys
   const load = medianMilliseconds(() => loadModel(bytes), plan.loadRepeats, 30_000);
   row.loadMs = load.median;
   row.details = {
-    settings: { dims: settings.dims, wordSpan: settings.wordSpan, charSpan: settings.charSpan, hashBits: settings.hashBits, epochs: settings.epochs, precision: settings.precision, fineTuneEpochs: settings.fineTuneEpochs, maxBytes: settings.maxBytes, holdout: settings.holdout },
+    settings: { dims: settings.dims, wordSpan: settings.wordSpan, charSpan: settings.charSpan, hashBits: settings.hashBits, weighting: settings.weighting, epochs: settings.epochs, precision: settings.precision, foldOutput: settings.foldOutput, fineTuneEpochs: settings.fineTuneEpochs, maxBytes: settings.maxBytes, holdout: settings.holdout },
     draftTrainSeconds: report.trainSeconds,
+    stageSeconds: report.stageSeconds,
     tokensPerSecond: report.tokensPerSecond,
     trainedOn: report.trainExamples,
     rows: report.rows,
@@ -248,9 +249,9 @@ async function sluiceRows(dataset: Dataset, plan: Plan, log: (line: string) => v
     const label = threads === 1 ? "1 thread" : `${threads} threads`;
     log(`  Sluice compiled, ${label}`);
     rows.push(await sluiceRow(dataset, plan, `Sluice compiled int8 (${label})`, "sluice-compiled", base));
-    // The draft as a file: float32, every row, no output-layer fine-tune, no byte budget.
+    // The draft as a file: float32, every row, its own output layer (not folded), no fine-tune, no byte budget.
     log(`  Sluice draft, ${label}`);
-    rows.push(await sluiceRow(dataset, plan, `Sluice draft float32 (${label})`, "sluice-draft", { ...base, precision: "float32", keepFeatures: 0, fineTuneEpochs: 0, maxBytes: 0 }));
+    rows.push(await sluiceRow(dataset, plan, `Sluice draft float32 (${label})`, "sluice-draft", { ...base, precision: "float32", keepFeatures: 0, fineTuneEpochs: 0, maxBytes: 0, foldOutput: false }));
   }
   log(`  Sluice compiled, --max-bytes ${dataset.budgetText}`);
   rows.push(await sluiceRow(dataset, plan, `Sluice compiled int8, max-bytes ${dataset.budgetText} (1 thread)`, "sluice-budget", { ...defaultBuildSettings(), threads: 1, maxBytes: dataset.budgetBytes }));
@@ -492,7 +493,7 @@ export function comparisonNotes(rows: readonly ComparisonRow[]): string[] {
   return [
     "All systems train on the same training split and are scored on the same test split (SpamAssassin: the fixture's murmur3 80/20 split; support topics: murmur3 of the CSV line number % 5 = 0 is test). Accuracy and macro-F1 come from each system's test predictions, scored by compiler/metrics.",
     "Sluice train s = the whole build() call (encode, train, prune, quantize, fine-tune the output layer, calibrate, write, verify) with default settings; it trains on 90% of the training split and keeps 10% for calibration and policy (default holdout). Draft-only training seconds are in the JSON (details.draftTrainSeconds).",
-    "Sluice compiled = the default build (int8, every row kept). max-bytes = the same with a size budget (rows pruned to fit). Sluice draft = a separate build with precision float32, fine-tune epochs 0, keep-features 0, no max-bytes: the draft itself as a float32 file (1 thread: the identical draft, same seed). 2 threads = settings.threads 2 (Hogwild, not deterministic).",
+    "Sluice compiled = the default build (int8; logit rows, the output layer multiplied in; TF-IDF, 5 epochs; the default 1 MiB budget prunes rows when the data needs more). max-bytes = the same with a smaller size budget (rows pruned to fit). Sluice draft = a separate build with precision float32, fine-tune epochs 0, keep-features 0, no max-bytes, output layer kept (no folding): the draft itself as a float32 file (1 thread: the identical draft, same seed). 2 threads = settings.threads 2 (Hogwild, not deterministic).",
     `µs/doc = one classify call per text after a warm-up, performance.now around each call, percentiles by nearest rank over the sorted calls (Sluice: ${Number.isFinite(calls) ? `≥ ${calls}` : "?"} calls; natural: see details.classify.calls in the JSON). Sluice: model.classify(text); natural: classifier.classify(text); sklearn: pipeline.predict([text]) on an evenly spread sample in Python (batch predict per text is in the ratios).`,
     "Model bytes: Sluice = the model file; natural = UTF-8 bytes of JSON.stringify(classifier), what its save() writes (it includes the stemmed training documents); sklearn = vocabulary (UTF-8 term bytes + 4 per index) + float64 coefficients and intercepts (one coefficient row for two classes; idf_, 8 bytes per term, is not counted: see details.idfBytes).",
     `Load ms: Sluice = loadModel(bytes), median of ${loadRepeats}; natural = JSON.parse + restore, median of up to ${loadRepeats} within 20 s; sklearn = pickle.loads of the fitted pipeline, median.`,
