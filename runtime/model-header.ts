@@ -31,8 +31,12 @@ export interface ModelHeader {
   featurizer: FeaturizerSettings;
   weighting: Weighting;
   precision: Precision;
-  /** How int8 values map back to floats: value = q × scale of its row (symmetric, per row). */
-  quantization: { scheme: "symmetric-per-row"; bits: 8 } | null;
+  /**
+   * How int8 values map back to floats: value = q × scale of its row (symmetric, per row).
+   * Version 2 stores each row's scale as a one-byte code (`rowScaleCodes`, see format.ts) and
+   * TF-IDF weights as u16 multiples of `weightStep`; version 1 stores both as f32.
+   */
+  quantization: { scheme: "symmetric-per-row"; bits: 8; rowScaleCodes?: "log2-eighths"; weightStep?: number | null } | null;
   /** Kept-slot index geometry: 2^bucketBits buckets, slot low bits stored per row. */
   index: { bucketBits: number; lowBits: number };
   /** Temperature scaling: logits are divided by this before softmax/sigmoid. */
@@ -91,6 +95,19 @@ export function validateHeader(value: unknown, offset: number, version: number):
   if (weighting !== "mean" && weighting !== "tfidf") fail("weighting", '"mean" or "tfidf"');
   const precision = header.precision;
   if (precision !== "int8" && precision !== "float32") fail("precision", '"int8" or "float32"');
+  let quantization: ModelHeader["quantization"] = precision === "int8" ? { scheme: "symmetric-per-row", bits: 8 } : null;
+  if (version >= 2 && precision === "int8") {
+    if (!isRecord(header.quantization)) return fail("quantization", "a map for an int8 model");
+    const q = header.quantization as Record<string, unknown>;
+    q.scheme === "symmetric-per-row" || fail("quantization.scheme", '"symmetric-per-row"');
+    q.bits === 8 || fail("quantization.bits", "8");
+    q.rowScaleCodes === "log2-eighths" || fail("quantization.rowScaleCodes", '"log2-eighths"');
+    const step = q.weightStep ?? null;
+    if (weighting === "tfidf" ? !(typeof step === "number" && step > 0 && Number.isFinite(step)) : step !== null) {
+      fail("quantization.weightStep", weighting === "tfidf" ? "a positive number for TF-IDF weights" : "nil without TF-IDF weights");
+    }
+    quantization = { scheme: "symmetric-per-row", bits: 8, rowScaleCodes: "log2-eighths", weightStep: step as number | null };
+  }
   const index = header.index;
   if (!isRecord(index)) return fail("index", "a map");
   const idx = index as Record<string, unknown>;
@@ -129,7 +146,7 @@ export function validateHeader(value: unknown, offset: number, version: number):
     },
     weighting: weighting as Weighting,
     precision: precision as Precision,
-    quantization: precision === "int8" ? { scheme: "symmetric-per-row", bits: 8 } : null,
+    quantization,
     index: { bucketBits: idx.bucketBits as number, lowBits: idx.lowBits as number },
     calibration: { temperature: temperature as number },
     thresholds: thresholds as number[] | null,

@@ -12,9 +12,12 @@ import {
   MAGIC,
   MAX_HEADER_BYTES,
   PRELUDE_BYTES,
+  ROW_SCALE_CODE_BIAS,
+  ROW_SCALE_CODE_STEPS,
   SECTION,
   VERSION_OFFSET,
   alignUp,
+  rowScaleOfCode,
   type SectionName,
 } from "../../runtime/format.ts";
 import type { ModelHeader } from "../../runtime/model-header.ts";
@@ -53,15 +56,17 @@ export function writeModel(contents: ModelContents): Uint8Array {
   const bucketBits = chooseBucketBits(rowCount, hashBits);
   const lowBits = hashBits - bucketBits;
   const { buckets, keys } = buildSlotIndex(contents.slots, bucketBits, lowBits);
+  const int8 = contents.header.precision === "int8";
+  const tfidf = contents.header.weighting === "tfidf";
+  const weights = tfidf && int8 ? weightSteps(contents.rowWeights as Float32Array) : null;
   const header: ModelHeader = {
     ...contents.header,
     rowCount,
-    quantization: contents.header.precision === "int8" ? { scheme: "symmetric-per-row", bits: 8 } : null,
+    quantization: int8 ? { scheme: "symmetric-per-row", bits: 8, rowScaleCodes: "log2-eighths", weightStep: weights ? weights.step : null } : null,
     index: { bucketBits, lowBits },
   };
   const headerBytes = pack(orderedHeader(header)) as Uint8Array;
   if (headerBytes.length > MAX_HEADER_BYTES) throw new Error(`model header is ${headerBytes.length} bytes, over the ${MAX_HEADER_BYTES}-byte limit (too many labels?)`);
-  const int8 = header.precision === "int8";
   const hiddenRows = header.rowSpace === "hidden";
   if (hiddenRows !== (contents.outputWeights !== null)) throw new Error(`writeModel: ${header.rowSpace} rows ${hiddenRows ? "need" : "take no"} output weights`);
   const sections: PlannedSection[] = [
@@ -69,8 +74,8 @@ export function writeModel(contents: ModelContents): Uint8Array {
     { name: "slotKeys", element: lowBits <= 8 ? "u8" : "u16", data: keys },
     { name: "rows", element: int8 ? "i8" : "f32", data: contents.rows },
   ];
-  if (int8) sections.push({ name: "rowScales", element: "f32", data: contents.rowScales as Float32Array });
-  if (header.weighting === "tfidf") sections.push({ name: "rowWeights", element: "f32", data: contents.rowWeights as Float32Array });
+  if (int8) sections.push({ name: "rowScales", element: "u8", data: rowScaleCodes(contents.rowScales as Float32Array) });
+  if (tfidf) sections.push(weights ? { name: "rowWeights", element: "u16", data: weights.steps } : { name: "rowWeights", element: "f32", data: contents.rowWeights as Float32Array });
   if (hiddenRows) {
     sections.push({ name: "outputWeights", element: int8 ? "i8" : "f32", data: contents.outputWeights as Int8Array | Float32Array });
     if (int8) sections.push({ name: "outputScales", element: "f32", data: contents.outputScales as Float32Array });
@@ -104,6 +109,32 @@ export function writeModel(contents: ModelContents): Uint8Array {
   });
   view.setUint32(dataEnd, crc32(bytes, 0, dataEnd), true);
   return bytes;
+}
+
+/** One-byte codes of row scales that came from compile/quantize.ts (each must be a code's exact scale). */
+function rowScaleCodes(scales: Float32Array): Uint8Array {
+  const codes = new Uint8Array(scales.length);
+  for (let row = 0; row < scales.length; row++) {
+    const scale = scales[row];
+    if (scale === 0) continue;
+    const code = Math.round(ROW_SCALE_CODE_STEPS * Math.log2(scale)) + ROW_SCALE_CODE_BIAS;
+    if (!(code >= 1 && code <= 255) || rowScaleOfCode(code) !== scale) throw new Error(`writeModel: row ${row} has scale ${scale}, which is not the scale of a one-byte code (quantize rows with compile/quantize.ts)`);
+    codes[row] = code;
+  }
+  return codes;
+}
+
+/**
+ * TF-IDF weights as u16 multiples of max / 65535: a relative error under 1e-4 for weights of
+ * 1 or more (inverse document frequencies here are ln((1 + N) / (1 + df)) + 1 ≥ 1, at most ~20).
+ */
+function weightSteps(weights: Float32Array): { steps: Uint16Array; step: number } {
+  let max = 0;
+  for (let i = 0; i < weights.length; i++) max = Math.max(max, weights[i]);
+  const step = max > 0 ? max / 65535 : 1;
+  const steps = new Uint16Array(weights.length);
+  for (let i = 0; i < weights.length; i++) steps[i] = Math.min(65535, Math.max(0, Math.round(weights[i] / step)));
+  return { steps, step };
 }
 
 /** Bytes each section takes in a file written from `contents` (for build reports). */

@@ -25,9 +25,11 @@ function logOdds(model: Model, text: string): number[] {
 
 describe("model.explain", () => {
   for (const [name, overrides] of [
-    ["int8 logit rows, mean weighting", {}],
+    ["int8 logit rows, TF-IDF weighting (the defaults)", {}],
+    ["int8 logit rows, mean weighting", { weighting: "mean" as const }],
     ["float32 logit rows, TF-IDF weighting", { precision: "float32" as const, weighting: "tfidf" as const }],
-    ["int8 hidden rows and output layer, mean weighting", { foldOutput: false }],
+    ["int8 hidden rows and output layer, mean weighting", { foldOutput: false, weighting: "mean" as const }],
+    ["int8 hidden rows and output layer, TF-IDF weighting", { foldOutput: false }],
     ["float32 hidden rows and output layer, TF-IDF weighting", { precision: "float32" as const, weighting: "tfidf" as const, foldOutput: false }],
   ] as const) {
     it(`should split each logit exactly into bias plus feature contributions (${name})`, async () => {

@@ -90,43 +90,44 @@ describe("the version 2 golden model file (logit rows)", () => {
 
   it("declares logit rows in its header", () => {
     const headerLength = viewV2.getUint32(12, true);
-    expect(headerLength).toBe(971);
+    expect(headerLength).toBe(1010);
     const header = unpack(bytesV2.subarray(16, 16 + headerLength)) as Record<string, any>;
     expect(header.rowSpace).toBe("logits");
     expect(header.dims).toBe(4);
     expect(header.outputCount).toBe(2);
     expect(header.rowCount).toBe(40);
-    expect(header.quantization).toEqual({ scheme: "symmetric-per-row", bits: 8 });
+    // Version 2: row scales as one-byte codes (format.ts, rowScaleOfCode); no TF-IDF here, so no weight step.
+    expect(header.quantization).toEqual({ scheme: "symmetric-per-row", bits: 8, rowScaleCodes: "log2-eighths", weightStep: null });
   });
 
-  it("lists rows of outputCount values and no output layer", () => {
-    const directory = 992;
+  it("lists rows of outputCount values, one-byte row scale codes and no output layer", () => {
+    const directory = 1032;
     expect(viewV2.getUint32(directory, true)).toBe(5);
     const entries = Array.from({ length: 5 }, (_, i) => {
       const at = directory + 8 + 16 * i;
       return [viewV2.getUint32(at, true), viewV2.getUint32(at + 4, true), viewV2.getUint32(at + 8, true), viewV2.getUint32(at + 12, true)];
     });
-    // slotBuckets u16, slotKeys u8, rows i8 (40 rows × 2 logits), rowScales f32, outputBias f32
+    // slotBuckets u16, slotKeys u8, rows i8 (40 rows × 2 logits), rowScales u8 codes, outputBias f32
     expect(entries).toEqual([
-      [1, 3, 1080, 66],
-      [2, 1, 1152, 40],
-      [4, 2, 1192, 80],
-      [3, 5, 1272, 160],
-      [8, 5, 1432, 8],
+      [1, 3, 1120, 66],
+      [2, 1, 1192, 40],
+      [4, 2, 1232, 80],
+      [3, 1, 1312, 40],
+      [8, 5, 1352, 8],
     ]);
   });
 
   it("ends with the CRC-32 of everything before it and scores texts exactly as when it was recorded", () => {
-    expect(bytesV2.length).toBe(1444);
+    expect(bytesV2.length).toBe(1364);
     expect(viewV2.getUint32(bytesV2.length - 4, true)).toBe(crc32(bytesV2, 0, bytesV2.length - 4));
     const model = loadModel(bytesV2);
-    expect(model.meta.version).toBe("f1178f9d");
+    expect(model.meta.version).toBe("d859c089");
     expect(model.meta.rowSpace).toBe("logits");
     expect(model.classify("refund my parcel", { top: 2 })).toEqual([
-      { label: "billing", score: Math.fround(0.558742880821228) },
-      { label: "shipping", score: Math.fround(0.441257119178772) },
+      { label: "billing", score: Math.fround(0.5584453344345093) },
+      { label: "shipping", score: Math.fround(0.4415546655654907) },
     ]);
-    expect(Array.from(model.score("where is my refund").scores)).toEqual([0.47360679507255554, 0.5263931751251221]);
+    expect(Array.from(model.score("where is my refund").scores)).toEqual([0.47312408685684204, 0.526875913143158]);
   });
 
   it("scores like the version 1 file of the same training data, up to quantization", () => {

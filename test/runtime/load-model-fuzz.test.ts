@@ -125,6 +125,12 @@ describe.each(goldenFiles)("loadModel on hostile bytes (%s)", (_name, golden) =>
     ];
     // Logit rows described as hidden ones: the output layer sections are missing.
     if (base.rowSpace === "logits") cases.push(["rowSpace hidden over logit rows", (h) => (h.rowSpace = "hidden"), "bad-section"]);
+    // Version 2 int8 files say how their row scales and weights are coded.
+    if (base.rowSpace !== undefined) {
+      cases.push(["rowScaleCodes", (h) => (h.quantization = { ...h.quantization, rowScaleCodes: "linear" }), "bad-header"]);
+      cases.push(["weightStep without TF-IDF", (h) => (h.quantization = { ...h.quantization, weightStep: 0.5 }), "bad-header"]);
+      cases.push(["quantization missing", (h) => delete h.quantization, "bad-header"]);
+    }
     // The unchanged header round-trips, so each refusal below is the field's doing.
     expect(loadModel(withHeader(golden, structuredClone(base))).meta.labels).toEqual(["billing", "shipping"]);
     for (const [, mutate, code] of cases) {
