@@ -33,7 +33,7 @@ export async function runMicro(): Promise<MicroResult[]> {
   const texts = { 20: textOfTokens(pool, 20), 100: textOfTokens(pool.slice(10), 100), 300: textOfTokens(pool.slice(50), 300) };
   const configurations: [string, Partial<BuildSettings>][] = [
     ["words+pairs, dims 16", { dims: 16, charSpan: [0, 0], maxBytes: 0 }],
-    ["defaults (words+pairs, dims 24), 128 KB", { maxBytes: 128 * 1024 }],
+    ["defaults (words+pairs, TF-IDF, dims 24, logit rows), 128 KB", { maxBytes: 128 * 1024 }],
     ["words+pairs+char 3-4, dims 24, 128 KB", { charSpan: [3, 4], maxBytes: 128 * 1024 }],
   ];
   for (const [label, overrides] of configurations) {
