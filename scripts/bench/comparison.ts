@@ -25,6 +25,7 @@ import { murmur3String } from "../../runtime/murmur3.ts";
 import { loadSpamAssassin, splitSpamAssassin } from "../../test/fixtures/spam-assassin.ts";
 import { runNaturalJob, type NaturalJob, type NaturalOutcome } from "./natural-runner.ts";
 import { markdownTable, writeResults } from "./results-writer.ts";
+import { settleHeap } from "./timing.ts";
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 const REPOSITORY = join(HERE, "..", "..");
@@ -221,6 +222,7 @@ async function sluiceRow(dataset: Dataset, plan: Plan, system: string, role: Sys
   const { bytes, report } = await build({ examples: dataset.train, settings, buildTime: BUILD_TIME });
   row.trainSeconds = (performance.now() - started) / 1000;
   const model = loadModel(bytes);
+  settleHeap();
   const { timings, firstPass } = timeSingleCalls((text) => model.classify(text)[0]?.label ?? "", dataset.test.map((e) => e.text), plan.timing);
   Object.assign(row, scorePredictions(dataset, firstPass));
   row.classify = timings;

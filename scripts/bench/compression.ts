@@ -4,7 +4,7 @@ import { build } from "../../compiler/build.ts";
 import { defaultBuildSettings, type BuildSettings } from "../../compiler/build-settings.ts";
 import { evaluateModel, type LabelledText } from "../../compiler/evaluate.ts";
 import { loadModel } from "../../runtime/index.ts";
-import { median, timeBatch } from "./timing.ts";
+import { median, settleHeap, timeBatch } from "./timing.ts";
 
 export interface CompressionRow {
   dataset: string;
@@ -21,6 +21,7 @@ async function measure(dataset: string, name: string, train: LabelledText[], tes
   const settings = { ...defaultBuildSettings(), ...overrides };
   const { bytes } = await build({ examples: train, settings, buildTime: "2026-01-01T00:00:00.000Z" });
   const model = loadModel(bytes);
+  settleHeap();
   const report = evaluateModel(model, test);
   const texts = test.slice(0, 300).map((e) => e.text);
   const usPerDoc = timeBatch((i) => model.classify(texts[i % texts.length]), 6000, 600);
