@@ -410,7 +410,9 @@ async function compileDraft(draft: Draft, ranking: Int32Array, keep: number, sou
 
 /** Approximate bytes per kept row of `width` values (for stepping toward a byte budget). */
 function rowBytes(settings: BuildSettings, width: number): number {
-  return (settings.precision === "int8" ? width + 4 : width * 4) + (settings.weighting === "tfidf" ? 4 : 0) + 3;
+  // int8: the values, a one-byte scale code, a u16 weight under TF-IDF; float32: four bytes each.
+  const int8 = settings.precision === "int8";
+  return (int8 ? width + 1 : width * 4) + (settings.weighting === "tfidf" ? (int8 ? 2 : 4) : 0) + 3;
 }
 
 /** The largest row count (≤ upper) whose compiled file fits the byte budget, by bisection on real writes. */

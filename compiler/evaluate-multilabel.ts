@@ -5,23 +5,14 @@
 
 import type { Model } from "../runtime/model.ts";
 import { scoreTexts, type LabelledText, type ScoredSet } from "./evaluate.ts";
-import { computeMultilabelMetrics, precisionAtK, rankLabelsByScore, recallAtK, type LabelScores } from "./metrics/index.ts";
+import { computeMultilabelMetrics, precisionAtK, rankLabelsByScore, recallAtK, type LabelScores, type MultilabelMetrics } from "./metrics/index.ts";
 
 /** Per-label scores plus the threshold the predictions used. */
 export interface MultilabelLabelReport extends LabelScores {
   threshold: number;
 }
 
-export interface MultilabelEvaluationReport {
-  examples: number;
-  subsetAccuracy: number;
-  hammingLoss: number;
-  microPrecision: number;
-  microRecall: number;
-  microF1: number;
-  macroPrecision: number;
-  macroRecall: number;
-  macroF1: number;
+export interface MultilabelEvaluationReport extends Omit<MultilabelMetrics, "labels"> {
   /** Mean over examples of |top-k ∩ gold| / k (divides by k even when fewer labels exist). */
   precisionAt1: number;
   precisionAt3: number;

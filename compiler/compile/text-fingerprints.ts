@@ -242,20 +242,15 @@ export function summarizeTrainingFingerprint(value: unknown): { bytes: number; t
 }
 
 /**
- * Exact check: evaluated texts whose normal form (see `fingerprintText`) is also a training text.
+ * Evaluated texts whose normal form (see `fingerprintText`) is also a training text, compared
+ * by 64-bit hash as TrainingTextCollector does (the one implementation; exact up to collisions
+ * of probability about n·v / 2^64).
  * @example findLeaks(["Refund please"], ["refund  please", "hello"]) // { count: 1, samples: ["refund  please"] }
  */
 export function findLeaks(train: readonly string[], evaluated: readonly string[]): LeakFindings {
-  const seen = new Set<string>();
-  for (const text of train) seen.add(fingerprintText(text));
-  const samples: string[] = [];
-  let count = 0;
-  for (const text of evaluated) {
-    if (!seen.has(fingerprintText(text))) continue;
-    count++;
-    if (samples.length < 3) samples.push(text);
-  }
-  return { count, samples };
+  const collector = new TrainingTextCollector();
+  for (const text of train) collector.add(text);
+  return collector.findLeaks(evaluated);
 }
 
 /**

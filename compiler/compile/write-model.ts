@@ -12,8 +12,6 @@ import {
   MAGIC,
   MAX_HEADER_BYTES,
   PRELUDE_BYTES,
-  ROW_SCALE_CODE_BIAS,
-  ROW_SCALE_CODE_STEPS,
   SECTION,
   VERSION_OFFSET,
   alignUp,
@@ -22,6 +20,7 @@ import {
 } from "../../runtime/format.ts";
 import type { ModelHeader } from "../../runtime/model-header.ts";
 import { chooseBucketBits } from "../../runtime/slot-index.ts";
+import { rowScaleCodeCovering } from "./quantize.ts";
 
 /** A model ready to write: header fields plus numeric arrays. `index` is computed here. */
 export interface ModelContents {
@@ -117,8 +116,8 @@ function rowScaleCodes(scales: Float32Array): Uint8Array {
   for (let row = 0; row < scales.length; row++) {
     const scale = scales[row];
     if (scale === 0) continue;
-    const code = Math.round(ROW_SCALE_CODE_STEPS * Math.log2(scale)) + ROW_SCALE_CODE_BIAS;
-    if (!(code >= 1 && code <= 255) || rowScaleOfCode(code) !== scale) throw new Error(`writeModel: row ${row} has scale ${scale}, which is not the scale of a one-byte code (quantize rows with compile/quantize.ts)`);
+    const code = scale > 0 && scale <= rowScaleOfCode(255) ? rowScaleCodeCovering(scale) : 0;
+    if (code === 0 || rowScaleOfCode(code) !== scale) throw new Error(`writeModel: row ${row} has scale ${scale}, which is not the scale of a one-byte code (quantize rows with compile/quantize.ts)`);
     codes[row] = code;
   }
   return codes;

@@ -167,7 +167,7 @@ describe("TrainingTextCollector", () => {
     const train = ["Refund please", "Where is my parcel?", "cancel my order"];
     for (const text of train) collector.add(text);
     const evaluated = ["refund   please", "hello", "WHERE IS MY PARCEL?", "Refund please", "cancel my order", "bye"];
-    expect(collector.findLeaks(evaluated)).toEqual(findLeaks(train, evaluated));
+    expect(collector.findLeaks(evaluated)).toEqual({ count: 4, samples: ["refund   please", "WHERE IS MY PARCEL?", "Refund please"] });
   });
 });
 
