@@ -3,8 +3,8 @@
 // `npm run bench -- --quick` skips the 1 GB larger-than-memory build and shortens the rest.
 // These are measurements, not tests: nothing here passes or fails on speed.
 import { readExamples } from "../compiler/read/index.ts";
-import type { LabelledText } from "../compiler/evaluate.ts";
-import { murmur3String } from "../runtime/murmur3.ts";
+import type { LabelledText } from "../compiler/evaluate/evaluate.ts";
+import { murmur3String } from "../runtime/featurizer/murmur3.ts";
 import { loadSpamAssassin, splitSpamAssassin } from "../test/fixtures/spam-assassin.ts";
 import { comparisonTable, comparisonRatios, comparisonNotes, runComparison, type ComparisonRow } from "./bench/comparison.ts";
 import { runCompression, type CompressionRow } from "./bench/compression.ts";

@@ -15,10 +15,10 @@ import { fileURLToPath, pathToFileURL } from "node:url";
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
 
-/** Where runtime/worker.ts imports the moderation model from. */
+/** Where runtime/worker/worker.ts imports the moderation model from. */
 export const DEMO_MODEL_PATH = join(ROOT, "demo-data", "models", "worker-contact-form.sluice");
 
-/** Where runtime/worker.ts imports the routing model from. */
+/** Where runtime/worker/worker.ts imports the routing model from. */
 export const DEMO_ROUTING_MODEL_PATH = join(ROOT, "demo-data", "models", "worker-support-topics.sluice");
 
 const MODERATION_DATA_PATH = join(ROOT, "demo-data", "contact-form.jsonl");

@@ -1,11 +1,11 @@
 // Writes test/fixtures/golden/tiny-v2.sluice, the golden file of the current format version,
-// pinned by test/runtime/golden-model.test.ts. Run only when the format version changes (then
+// pinned by test/runtime/format/golden-model.test.ts. Run only when the format version changes (then
 // rename the output for the new version and keep the older files: the loader must keep reading them):
 //   npm run golden
 // tiny.sluice is the version 1 file this script wrote before version 2 existed; it is kept as is.
 import { writeFileSync } from "node:fs";
-import { build } from "../compiler/build.ts";
-import { defaultBuildSettings } from "../compiler/build-settings.ts";
+import { build } from "../compiler/build/build.ts";
+import { defaultBuildSettings } from "../compiler/build/build-settings.ts";
 
 const examples = [
   { text: "refund my payment please", labels: ["billing"] },

@@ -1,9 +1,9 @@
 // Reads a model file for a command; a corrupt file is refused with the file name in the message.
 
 import { readFileSync } from "node:fs";
-import { loadModel } from "../../runtime/load-model.ts";
+import { loadModel } from "../../runtime/format/load-model.ts";
 import { ModelFormatError } from "../../runtime/errors.ts";
-import type { Model } from "../../runtime/model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import type { FieldDefaults } from "./read-data.ts";
 
 /** Loads `path`; throws ModelFormatError with the path prefixed, or a plain error when unreadable. */

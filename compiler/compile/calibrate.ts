@@ -3,8 +3,8 @@
 // split by minimizing NLL. Softmax is shift-invariant, so log-probabilities stand in for
 // the logits. The sigmoid head keeps T = 1 here (its per-label thresholds do that job).
 
-import type { HeadKind } from "../../runtime/model-header.ts";
-import type { LabelledText, ScoredSet } from "../evaluate.ts";
+import type { HeadKind } from "../../runtime/format/model-header.ts";
+import type { LabelledText, ScoredSet } from "../evaluate/evaluate.ts";
 import { expectedCalibrationError, fitTemperature } from "../metrics/index.ts";
 
 export interface CalibrationReport {

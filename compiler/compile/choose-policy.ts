@@ -3,8 +3,8 @@
 // human-review band when the label also has a precision target, else a review rule).
 // Only what the operator asked for becomes policy; with no targets there is none.
 
-import type { Policy, PolicyRule } from "../../runtime/policy.ts";
-import type { LabelledText, ScoredSet } from "../evaluate.ts";
+import type { Policy, PolicyRule } from "../../runtime/model/policy.ts";
+import type { LabelledText, ScoredSet } from "../evaluate/evaluate.ts";
 import { precisionRecallCurve, thresholdForTargetPrecision, thresholdForTargetRecall } from "../metrics/index.ts";
 
 export interface PolicyReport {

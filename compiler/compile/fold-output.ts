@@ -4,7 +4,7 @@
 // multiply-adds instead of dims. Worth it whenever outputCount < dims: with 2-6 labels and
 // 16-32 dims the rows shrink 3-12× and scoring speeds up in proportion.
 
-/** Whether a compiled model should store logit rows (see runtime/model-header.ts, RowSpace). */
+/** Whether a compiled model should store logit rows (see runtime/format/model-header.ts, RowSpace). */
 export function shouldFoldOutput(enabled: boolean, head: "softmax" | "sigmoid" | "tree", outputCount: number, dims: number): boolean {
   // The tree head scores only the inner nodes on the paths it visits, so it needs hidden vectors.
   return enabled && head !== "tree" && outputCount < dims;

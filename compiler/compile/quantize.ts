@@ -1,10 +1,10 @@
 // Symmetric 8-bit quantization with one scale per row: value ≈ q × scale, q ∈ [−127, 127].
 // Per-row scales keep rare, small rows as precise as large ones (the usual choice for
 // embedding tables; common practice, no source). Scales are taken from the one-byte codes
-// the file stores (runtime/format.ts, rowScaleOfCode): the smallest code scale covering
+// the file stores (runtime/format/format.ts, rowScaleOfCode): the smallest code scale covering
 // max|row| / 127, so what is rounded against is exactly what the runtime multiplies by.
 
-import { ROW_SCALE_CODE_BIAS, ROW_SCALE_CODE_STEPS, rowScaleOfCode } from "../../runtime/format.ts";
+import { ROW_SCALE_CODE_BIAS, ROW_SCALE_CODE_STEPS, rowScaleOfCode } from "../../runtime/format/format.ts";
 
 /** The smallest row scale code whose scale is at least `needed` (> 0). */
 export function rowScaleCodeCovering(needed: number): number {

@@ -3,7 +3,7 @@
 // multi-label classifiers; common practice, no source). A label with fewer than three
 // validation positives keeps 0.5, since a threshold fitted to one or two examples is noise.
 
-import type { LabelledText, ScoredSet } from "../evaluate.ts";
+import type { LabelledText, ScoredSet } from "../evaluate/evaluate.ts";
 import { precisionRecallCurve } from "../metrics/index.ts";
 
 /** One threshold per label, in label order. */

@@ -1,8 +1,8 @@
-// Serializes a model to the .sluice layout defined in runtime/format.ts (byte table in
-// runtime/FORMAT.md). The writer imports the same constants the loader reads.
+// Serializes a model to the .sluice layout defined in runtime/format/format.ts (byte table in
+// runtime/format/FORMAT.md). The writer imports the same constants the loader reads.
 
 import { pack } from "msgpackr";
-import { crc32 } from "../../runtime/crc32.ts";
+import { crc32 } from "../../runtime/format/crc32.ts";
 import {
   CHECKSUM_BYTES,
   DIRECTORY_ENTRY_BYTES,
@@ -17,9 +17,9 @@ import {
   alignUp,
   rowScaleOfCode,
   type SectionName,
-} from "../../runtime/format.ts";
-import type { ModelHeader } from "../../runtime/model-header.ts";
-import { chooseBucketBits } from "../../runtime/slot-index.ts";
+} from "../../runtime/format/format.ts";
+import type { ModelHeader } from "../../runtime/format/model-header.ts";
+import { chooseBucketBits } from "../../runtime/format/slot-index.ts";
 import { rowScaleCodeCovering } from "./quantize.ts";
 
 /** A model ready to write: header fields plus numeric arrays. `index` is computed here. */

@@ -2,8 +2,8 @@
 // ships (pruned, quantized), both measured on the validation split at build time and read from
 // the model header, plus the shipped model measured now on the data given to the report.
 
-import type { Model } from "../../runtime/model.ts";
-import type { EvaluationReport } from "../evaluate.ts";
+import type { Model } from "../../runtime/model/model.ts";
+import type { EvaluationReport } from "../evaluate/evaluate.ts";
 import { escapeHtml } from "./escape-html.ts";
 import { chartDataTable } from "./html-table.ts";
 import { OKABE_ITO, textColourOn } from "./report-palettes.ts";

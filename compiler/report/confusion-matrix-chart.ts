@@ -7,7 +7,7 @@ import { chartDataTable } from "./html-table.ts";
 import { heatColour, textColourOn } from "./report-palettes.ts";
 import { countOf, formatCount, formatPercent, formatRate, shorten } from "./report-format.ts";
 import { element, svgChart, svgText } from "./svg-builder.ts";
-import type { EvaluationReport } from "../evaluate.ts";
+import type { EvaluationReport } from "../evaluate/evaluate.ts";
 
 /** Beyond this many labels the matrix shows the most frequent gold labels only. */
 export const MATRIX_LABEL_LIMIT = 30;

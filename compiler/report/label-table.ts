@@ -2,8 +2,8 @@
 // Wilson 95% intervals so a precision measured on twelve texts is not read like one measured
 // on twelve hundred.
 
-import type { PolicyRule } from "../../runtime/policy.ts";
-import type { EvaluationReport } from "../evaluate.ts";
+import type { PolicyRule } from "../../runtime/model/policy.ts";
+import type { EvaluationReport } from "../evaluate/evaluate.ts";
 import { wilsonInterval, type Interval } from "../metrics/index.ts";
 import { htmlTable } from "./html-table.ts";
 import { formatCount, formatRate } from "./report-format.ts";

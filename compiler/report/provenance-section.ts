@@ -1,7 +1,7 @@
 // Where the model came from and what this report measured: the header's provenance and
 // settings, the model's shape and policy, and the data file given to the report.
 
-import type { Model } from "../../runtime/model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import { escapeHtml } from "./escape-html.ts";
 import { htmlTable } from "./html-table.ts";
 import { describeRule } from "./label-table.ts";

@@ -1,8 +1,8 @@
 // renderReport: a model plus labelled data in, one self-contained HTML page out. Pure: no
 // file or network access and no clock (the caller passes a time if it wants one shown).
 
-import type { Model } from "../../runtime/model.ts";
-import type { EvaluationReport } from "../evaluate.ts";
+import type { Model } from "../../runtime/model/model.ts";
+import type { EvaluationReport } from "../evaluate/evaluate.ts";
 import { TOOL_VERSION } from "../version.ts";
 import { compileStages, renderCompileCost } from "./compile-cost-chart.ts";
 import { renderConfidentMistakes } from "./confident-mistakes.ts";

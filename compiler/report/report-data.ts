@@ -2,9 +2,9 @@
 // through the runtime (what ships), the evaluation, per-label precision–recall curves with
 // their operating points, the reliability bins and the most confident mistakes.
 
-import type { Model } from "../../runtime/model.ts";
-import type { PolicyRule } from "../../runtime/policy.ts";
-import { evaluateModel, goldIndexes, scoreTexts, type EvaluationReport, type LabelledText } from "../evaluate.ts";
+import type { Model } from "../../runtime/model/model.ts";
+import type { PolicyRule } from "../../runtime/model/policy.ts";
+import { evaluateModel, goldIndexes, scoreTexts, type EvaluationReport, type LabelledText } from "../evaluate/evaluate.ts";
 import { expectedCalibrationError, precisionRecallCurve, reliabilityBins, type CurvePoint, type ReliabilityBin } from "../metrics/index.ts";
 
 /** Equal-width confidence bins of the reliability diagram (Guo et al. 2017 use 15). */

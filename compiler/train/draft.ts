@@ -1,7 +1,7 @@
 // The draft: an uncompressed float model inside the compiler, before pruning and
 // quantization. Rows exist only for kept slots (seen in ≥ minDocs training examples).
 
-import type { HeadKind } from "../../runtime/model-header.ts";
+import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { RandomSource } from "./random.ts";
 
 export interface Draft {
@@ -20,7 +20,7 @@ export interface Draft {
   outputs: Float32Array;
   bias: Float32Array;
   outputCount: number;
-  /** Children of the inner nodes (tree head only; see runtime/label-tree.ts). */
+  /** Children of the inner nodes (tree head only; see runtime/model/label-tree.ts). */
   tree: Int32Array | null;
 }
 

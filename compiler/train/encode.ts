@@ -2,7 +2,7 @@
 // documents each slot occurs in, and map the kept slots (seen in ≥ minDocs examples)
 // to dense row ids. Training then touches only typed arrays.
 
-import { createFeatureBuffer, type Featurizer } from "../../runtime/featurizer.ts";
+import { createFeatureBuffer, type Featurizer } from "../../runtime/featurizer/featurizer.ts";
 
 /** Examples as feature lists: features of example i are `features[offsets[i] .. offsets[i+1])`. */
 export interface EncodedExamples {

@@ -1,7 +1,7 @@
 // What a tune trial is scored by, measured on the compiled model.
 
-import type { Model } from "../../runtime/model.ts";
-import { evaluateModel, scoreTexts, type LabelledText } from "../evaluate.ts";
+import type { Model } from "../../runtime/model/model.ts";
+import { evaluateModel, scoreTexts, type LabelledText } from "../evaluate/evaluate.ts";
 import { precisionRecallCurve, thresholdForTargetPrecision } from "../metrics/index.ts";
 
 export type TuneMetric = { kind: "macro-f1" } | { kind: "accuracy" } | { kind: "recall-at-precision"; label: string; precision: number };

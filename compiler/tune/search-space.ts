@@ -3,7 +3,7 @@
 // spans, hash size, rare-feature cut-off, weighting, epochs and learning rate; the pruning
 // budget comes from --max-bytes, which every trial is compiled under.
 
-import { defaultBuildSettings, type BuildSettings } from "../build-settings.ts";
+import { defaultBuildSettings, type BuildSettings } from "../build/build-settings.ts";
 import type { RandomSource } from "../train/random.ts";
 
 const DIMS = [8, 12, 16, 24, 32, 48];

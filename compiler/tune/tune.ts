@@ -6,10 +6,10 @@
 // time is spent. The default settings are always scored at full size first, so the result
 // is never worse than them on the same validation data.
 
-import { loadModel } from "../../runtime/load-model.ts";
-import { build } from "../build.ts";
-import type { BuildSettings } from "../build-settings.ts";
-import type { LabelledText } from "../evaluate.ts";
+import { loadModel } from "../../runtime/format/load-model.ts";
+import { build } from "../build/build.ts";
+import type { BuildSettings } from "../build/build-settings.ts";
+import type { LabelledText } from "../evaluate/evaluate.ts";
 import { createRandom } from "../train/random.ts";
 import { stratifiedSplit } from "../train/split.ts";
 import { microsecondsPerDoc, scoreModel, type TuneMetric } from "./objective.ts";

@@ -3,8 +3,8 @@
 // Options: "top" (labels per text, default all), "minScore" (leave out lower scores).
 
 import type { Handler } from "hono";
-import type { LabelScore, Model } from "../model.ts";
-import type { Decision } from "../policy.ts";
+import type { LabelScore, Model } from "../model/model.ts";
+import type { Decision } from "../model/policy.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
 import { decideText } from "./decide-text.ts";

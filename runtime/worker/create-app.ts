@@ -9,7 +9,7 @@ import { cors } from "hono/cors";
 import { HTTPException } from "hono/http-exception";
 import { NONCE, secureHeaders, type SecureHeadersVariables } from "hono/secure-headers";
 import { InputError } from "../errors.ts";
-import type { Model } from "../model.ts";
+import type { Model } from "../model/model.ts";
 import { ApiError, errorResponse } from "./api-error.ts";
 import { resolveAppConfig, type AppConfig } from "./app-config.ts";
 import { classifyRoute } from "./classify-route.ts";

@@ -2,8 +2,8 @@
 // server's review floor, so a confident-looking "allow" on a weak score goes to a person.
 // The floor only ever turns "allow" into "review"; it never blocks.
 
-import type { Model } from "../model.ts";
-import type { Decision } from "../policy.ts";
+import type { Model } from "../model/model.ts";
+import type { Decision } from "../model/policy.ts";
 
 /**
  * `model.decide(text)`, with "allow" below `reviewBelow` turned into "review".

@@ -3,7 +3,7 @@
 // Options: "top" (labels, default 3), "features" (per label, default 8, at most 50).
 
 import type { Handler } from "hono";
-import type { Model } from "../model.ts";
+import type { Model } from "../model/model.ts";
 import type { AppConfig } from "./app-config.ts";
 import { decideText } from "./decide-text.ts";
 import { readBodyFields } from "./read-request-body.ts";

@@ -1,11 +1,11 @@
 // GET /v1/model: what a caller may know about the served model. Fields are listed one by
 // one, provenance too (not spread from meta), so nothing added to the header later leaks by
 // accident. The model file holds no training texts, but its provenance may hold
-// `trainFingerprint`, a Bloom filter of them (compiler/compile/text-fingerprints.ts): with
+// `trainFingerprint`, a Bloom filter of them (compiler/read/text-fingerprints.ts): with
 // its bits anyone could test whether a given text was trained on, so only its size is served.
 
 import type { Handler } from "hono";
-import type { Model } from "../model.ts";
+import type { Model } from "../model/model.ts";
 
 /** Provenance keys served as they are: names, counts, hashes and settings, never texts. */
 const PUBLIC_PROVENANCE_KEYS = ["tool", "builtAt", "data", "fields", "dataSha256", "examples", "trainExamples", "settings"] as const;

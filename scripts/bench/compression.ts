@@ -1,8 +1,8 @@
 // What compression costs: the float draft (float32, every row) against compiled models
 // under the size budgets, on held-out data, plus classify and load speed of each.
-import { build } from "../../compiler/build.ts";
-import { defaultBuildSettings, type BuildSettings } from "../../compiler/build-settings.ts";
-import { evaluateModel, type LabelledText } from "../../compiler/evaluate.ts";
+import { build } from "../../compiler/build/build.ts";
+import { defaultBuildSettings, type BuildSettings } from "../../compiler/build/build-settings.ts";
+import { evaluateModel, type LabelledText } from "../../compiler/evaluate/evaluate.ts";
 import { loadModel } from "../../runtime/index.ts";
 import { median, settleHeap, timeBatch } from "./timing.ts";
 

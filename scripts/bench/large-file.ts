@@ -54,7 +54,7 @@ export async function runLargeFile(targetBytes = 1024 ** 3): Promise<LargeFileRe
     const lines = await writeLargeFile(data, targetBytes);
     const started = performance.now();
     // The child prints its own peak RSS after the build (process.resourceUsage().maxRSS is in KB).
-    const script = `import { register } from "tsx/esm/api"; register(); const { main } = await import(${JSON.stringify(join(root, "compiler/cli.ts"))}); const code = await main(${JSON.stringify(["build", data, "--out", join(directory, "large.sluice"), "--json", "--quiet", "--dims", "16", "--char-span", "0", "--epochs", "2", "--on-disk"])}); process.stderr.write("PEAK_RSS_KB=" + process.resourceUsage().maxRSS + "\\n"); process.exitCode = code;`;
+    const script = `import { register } from "tsx/esm/api"; register(); const { main } = await import(${JSON.stringify(join(root, "compiler/cli/main.ts"))}); const code = await main(${JSON.stringify(["build", data, "--out", join(directory, "large.sluice"), "--json", "--quiet", "--dims", "16", "--char-span", "0", "--epochs", "2", "--on-disk"])}); process.stderr.write("PEAK_RSS_KB=" + process.resourceUsage().maxRSS + "\\n"); process.exitCode = code;`;
     const child = spawnSync(process.execPath, ["--input-type=module", "-e", script], { cwd: root, encoding: "utf8", maxBuffer: 64 * 1024 * 1024 });
     const seconds = (performance.now() - started) / 1000;
     if (child.status !== 0) throw new Error(`large-file build failed (${child.status}): ${child.stderr.slice(-2000)}`);

@@ -1,7 +1,7 @@
 // Micro-benchmarks of the hot paths: featurize, classify (20-, 100- and 300-token texts),
 // model load, and training throughput on one core. Run alone: node --expose-gc --import tsx scripts/bench/micro.ts
-import { build } from "../../compiler/build.ts";
-import { defaultBuildSettings, type BuildSettings } from "../../compiler/build-settings.ts";
+import { build } from "../../compiler/build/build.ts";
+import { defaultBuildSettings, type BuildSettings } from "../../compiler/build/build-settings.ts";
 import { readExamples } from "../../compiler/read/index.ts";
 import { createFeatureBuffer, createFeaturizer, loadModel } from "../../runtime/index.ts";
 import { median, quickestWindow, settleHeap, timeBatch, timePerCall } from "./timing.ts";

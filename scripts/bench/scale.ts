@@ -1,8 +1,8 @@
 // Scale: the tree head against softmax on many labels, where `--head auto` should switch,
 // and training throughput on one and two threads.
-import { build } from "../../compiler/build.ts";
-import { defaultBuildSettings } from "../../compiler/build-settings.ts";
-import type { LabelledText } from "../../compiler/evaluate.ts";
+import { build } from "../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
+import type { LabelledText } from "../../compiler/evaluate/evaluate.ts";
 import { syntheticLabelData } from "../../test/fixtures/synthetic-labels.ts";
 
 export interface HeadRow {

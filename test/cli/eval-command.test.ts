@@ -8,8 +8,8 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { REPO, sluice } from "./run-sluice.ts";
-import { trainingFingerprint } from "../../compiler/compile/text-fingerprints.ts";
-import { handMadeModelBytes } from "../compiler/evaluate-hand-made-model.ts";
+import { trainingFingerprint } from "../../compiler/read/text-fingerprints.ts";
+import { handMadeModelBytes } from "../compiler/evaluate/evaluate-hand-made-model.ts";
 
 
 

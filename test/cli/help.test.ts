@@ -3,7 +3,7 @@
 import { execFile } from "node:child_process";
 import { promisify } from "node:util";
 import { describe, expect, it } from "vitest";
-import { BUILD_SETTINGS } from "../../compiler/build-settings.ts";
+import { BUILD_SETTINGS } from "../../compiler/build/build-settings.ts";
 
 const run = promisify(execFile);
 

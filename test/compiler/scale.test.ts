@@ -1,9 +1,9 @@
 // Large label sets and several threads: the tree head learns 1,000 labels, and Hogwild
 // training on two threads reaches the accuracy of one.
 import { describe, expect, it } from "vitest";
-import { build } from "../../compiler/build.ts";
-import { defaultBuildSettings } from "../../compiler/build-settings.ts";
-import { evaluateModel } from "../../compiler/evaluate.ts";
+import { build } from "../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
+import { evaluateModel } from "../../compiler/evaluate/evaluate.ts";
 import { loadModel } from "../../runtime/index.ts";
 import { syntheticLabelData } from "../fixtures/synthetic-labels.ts";
 import { readExamples } from "../../compiler/read/index.ts";

@@ -5,10 +5,10 @@
 // test/fixtures/spam-assassin.ts. Times are logged, never asserted.
 
 import { beforeAll, describe, expect, it } from "vitest";
-import { build, type BuildReport } from "../../compiler/build.ts";
-import { defaultBuildSettings } from "../../compiler/build-settings.ts";
-import { evaluateModel, type EvaluationReport } from "../../compiler/evaluate.ts";
-import { loadModel } from "../../runtime/load-model.ts";
+import { build, type BuildReport } from "../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
+import { evaluateModel, type EvaluationReport } from "../../compiler/evaluate/evaluate.ts";
+import { loadModel } from "../../runtime/format/load-model.ts";
 import { loadSpamAssassin, messageText, splitSpamAssassin, type SpamAssassinExample } from "../fixtures/spam-assassin.ts";
 
 describe("reading a raw message", () => {

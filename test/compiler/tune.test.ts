@@ -1,6 +1,6 @@
 // `sluice tune`: successive halving over compiled models under a size budget.
 import { describe, expect, it } from "vitest";
-import { defaultBuildSettings } from "../../compiler/build-settings.ts";
+import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
 import { readExamples } from "../../compiler/read/index.ts";
 import { parseMetric } from "../../compiler/tune/objective.ts";
 import { sizeFloor } from "../../compiler/tune/search-space.ts";

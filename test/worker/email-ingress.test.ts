@@ -9,7 +9,7 @@
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { DEFAULT_APP_CONFIG } from "../../runtime/worker/app-config.ts";
-import type { Model } from "../../runtime/model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import { deliverEmail, rfc822Message, type Delivery } from "./helpers/email-delivery.ts";
 import { demoModel, removeWorkerBundle, routingModel, startWorker, type RunningWorker } from "./helpers/worker-fixture.ts";
 

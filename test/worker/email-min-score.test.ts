@@ -8,7 +8,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { readExamples } from "../../compiler/read/index.ts";
 import type { Example } from "../../compiler/read/read-types.ts";
 import { stratifiedSplit } from "../../compiler/train/split.ts";
-import type { Model } from "../../runtime/model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import { DEFAULT_APP_CONFIG } from "../../runtime/worker/app-config.ts";
 import { DEMO_ROUTING_MODEL_ARGS } from "../../scripts/demo-model.ts";
 import { demoModel, routingModel } from "./helpers/worker-fixture.ts";

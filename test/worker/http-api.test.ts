@@ -4,8 +4,8 @@
 
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { summarizeTrainingFingerprint } from "../../compiler/compile/text-fingerprints.ts";
-import type { Model } from "../../runtime/model.ts";
+import { summarizeTrainingFingerprint } from "../../compiler/read/text-fingerprints.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import { WORKER_GZIP_CEILING } from "../../scripts/build-worker.ts";
 import { DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH } from "../../scripts/demo-model.ts";
 import { demoModel, jsonPost, startWorker, workerBundle, removeWorkerBundle, type RunningWorker } from "./helpers/worker-fixture.ts";
@@ -40,7 +40,7 @@ async function expectError(response: Response, status: number, code: string): Pr
   return body.error;
 }
 
-/** Size of the model's training fingerprint, read by the compiler's own decoder (compiler/compile/text-fingerprints.ts). */
+/** Size of the model's training fingerprint, read by the compiler's own decoder (compiler/read/text-fingerprints.ts). */
 function fingerprintBytes(served: Model): number {
   const summary = summarizeTrainingFingerprint(served.meta.provenance.trainFingerprint);
   if (summary === null || "error" in summary) throw new Error(`the demo model has no readable training fingerprint: ${JSON.stringify(summary)}`);
@@ -254,7 +254,7 @@ describe("POST /v1/explain", () => {
     const [top] = body.labels;
     expect(top.label).toBe("spam");
     expect(top.features.length).toBeGreaterThan(0);
-    // The model is linear before the softmax, so logit = bias + Σ contributions (runtime/model.ts header comment).
+    // The model is linear before the softmax, so logit = bias + Σ contributions (runtime/model/model.ts header comment).
     const sum = top.features.reduce((total, feature) => total + feature.contribution, top.bias);
     expect(sum).toBeCloseTo(top.logit, 4);
   });

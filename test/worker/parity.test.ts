@@ -7,7 +7,7 @@
 import { readFileSync } from "node:fs";
 import { parse } from "csv-parse/sync";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Model } from "../../runtime/model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import { appConfigFromEnv } from "../../runtime/worker/app-config.ts";
 import { handleEmail } from "../../runtime/worker/handle-email.ts";
 import { DEMO_MODEL_PATH } from "../../scripts/demo-model.ts";

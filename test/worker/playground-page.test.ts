@@ -6,7 +6,7 @@
 import { existsSync, mkdirSync } from "node:fs";
 import { chromium, type Browser, type Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Model } from "../../runtime/model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import { demoModel, startWorker, removeWorkerBundle, type RunningWorker } from "./helpers/worker-fixture.ts";
 
 const CHROMIUM = "/usr/bin/chromium";

@@ -2,13 +2,13 @@
 
 import { readFileSync, statSync } from "node:fs";
 import { basename } from "node:path";
-import { build, type BuildReport } from "../../build.ts";
-import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, type BuildSettings } from "../../build-settings.ts";
+import { build, type BuildReport } from "../../build/build.ts";
+import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, type BuildSettings } from "../../build/build-settings.ts";
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
 import { DATA_FLAGS, describeReadReport, readData, readOptionsFrom, sha256OfFile } from "../read-data.ts";
-import { buildFromFile } from "../../build-from-file.ts";
+import { buildFromFile } from "../../build/build-from-file.ts";
 import { createReadReport } from "../../read/index.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 

@@ -1,7 +1,7 @@
 // `sluice compare <live> <candidate> <data>`: metric deltas, McNemar's test and the examples
 // whose label flips; with --require-better / --max-regression the exit code gates a CI step.
 
-import { checkGates, compareModels, COMPARE_EXIT_CODES, formatP, signed, type FlipGroup, type ModelComparison } from "../../compare.ts";
+import { checkGates, compareModels, COMPARE_EXIT_CODES, formatP, signed, type FlipGroup, type ModelComparison } from "../../evaluate/compare.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";

@@ -3,11 +3,11 @@
 // plus the policy on this data, calibration before/after temperature scaling, and a warning
 // when examples of the data were trained on.
 
-import type { Model } from "../../../runtime/model.ts";
-import { evaluateAll, evaluationJson, type ModelEvaluation, type SingleLabelReport } from "../../evaluate-all.ts";
-import { leakageMessage } from "../../evaluate-leakage.ts";
-import type { MultilabelEvaluationReport } from "../../evaluate-multilabel.ts";
-import type { PolicyEvaluation } from "../../evaluate-policy.ts";
+import type { Model } from "../../../runtime/model/model.ts";
+import { evaluateAll, evaluationJson, type ModelEvaluation, type SingleLabelReport } from "../../evaluate/evaluate-all.ts";
+import { leakageMessage } from "../../evaluate/evaluate-leakage.ts";
+import type { MultilabelEvaluationReport } from "../../evaluate/evaluate-multilabel.ts";
+import type { PolicyEvaluation } from "../../evaluate/evaluate-policy.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { parseArgs, UsageError, type FlagSpec } from "../parse-args.ts";

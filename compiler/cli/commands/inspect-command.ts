@@ -1,7 +1,7 @@
 // `sluice inspect <model>`: header, labels, provenance and bytes per section.
 
 import { readFileSync } from "node:fs";
-import { summarizeTrainingFingerprint } from "../../compile/text-fingerprints.ts";
+import { summarizeTrainingFingerprint } from "../../read/text-fingerprints.ts";
 import { sectionSizes } from "../../compile/write-model.ts";
 import { loadModelFile } from "../load-model-file.ts";
 import { parseArgs, UsageError, type FlagSpec } from "../parse-args.ts";

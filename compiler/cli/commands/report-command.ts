@@ -3,7 +3,7 @@
 // the page comes from the pure renderReport.
 
 import { basename } from "node:path";
-import { evaluateModel } from "../../evaluate.ts";
+import { evaluateModel } from "../../evaluate/evaluate.ts";
 import { renderReport } from "../../report/render-report.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";

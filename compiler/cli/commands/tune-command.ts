@@ -1,6 +1,6 @@
 // `sluice tune <data> --time 10m [--max-bytes 256k] [--max-us 20] [--metric …] [--out sluice.config.json]`
 
-import { defaultBuildSettings, parseSize } from "../../build-settings.ts";
+import { defaultBuildSettings, parseSize } from "../../build/build-settings.ts";
 import { parseMetric } from "../../tune/objective.ts";
 import { searchedSettings } from "../../tune/search-space.ts";
 import { tune, type TrialResult } from "../../tune/tune.ts";

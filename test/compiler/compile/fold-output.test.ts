@@ -3,8 +3,8 @@
 // product; common practice, no source). So a float32 model with logit rows must score like
 // the same draft with hidden rows, and the int8 one must stay within quantization error.
 import { describe, expect, it } from "vitest";
-import { build } from "../../../compiler/build.ts";
-import { defaultBuildSettings, type BuildSettings } from "../../../compiler/build-settings.ts";
+import { build } from "../../../compiler/build/build.ts";
+import { defaultBuildSettings, type BuildSettings } from "../../../compiler/build/build-settings.ts";
 import { foldOutputLayer, shouldFoldOutput } from "../../../compiler/compile/fold-output.ts";
 import { loadModel } from "../../../runtime/index.ts";
 import { readExamples } from "../../../compiler/read/index.ts";

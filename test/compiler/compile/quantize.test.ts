@@ -1,9 +1,9 @@
-// Row quantization against one-byte scale codes (runtime/format.ts): symmetric int8 with a
+// Row quantization against one-byte scale codes (runtime/format/format.ts): symmetric int8 with a
 // per-row scale is common practice (no source); the checks below are the arithmetic bounds of
 // rounding to the nearest step (half a step at most) and of the code grid (steps of 2^(1/8)).
 import { describe, expect, it } from "vitest";
 import { dequantizeRows, quantizeRows, rowScaleCodeCovering } from "../../../compiler/compile/quantize.ts";
-import { rowScaleOfCode } from "../../../runtime/format.ts";
+import { rowScaleOfCode } from "../../../runtime/format/format.ts";
 
 describe("rowScaleCodeCovering", () => {
   it("picks the smallest code whose scale covers the need", () => {

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
-import { evaluateModel } from "../../../compiler/evaluate.ts";
+import { evaluateModel } from "../../../compiler/evaluate/evaluate.ts";
 import { renderReport } from "../../../compiler/report/render-report.ts";
-import type { Model } from "../../../runtime/model.ts";
+import type { Model } from "../../../runtime/model/model.ts";
 import type { ReportExample } from "../../../compiler/report/report-data.ts";
 import { AMPERSAND_LABEL, buildReportModel, SCRIPT_LABEL, TEXT_PAYLOAD, TRAINING_SHA256 } from "./report-test-model.ts";
 
@@ -131,7 +131,7 @@ describe("renderReport", () => {
   });
 
   it("marks the start of a review band as its own point", async () => {
-    // Same convention (score ≥ threshold); the review band is [reviewFrom, threshold) as runtime/policy.ts documents.
+    // Same convention (score ≥ threshold); the review band is [reviewFrom, threshold) as runtime/model/policy.ts documents.
     const { model: banded, examples: data } = await buildReportModel();
     (banded.meta as { policy: unknown }).policy = { rules: [{ label: SCRIPT_LABEL, action: "block", threshold: 0.9, reviewFrom: 0.4 }] };
     const k = banded.labels.indexOf(SCRIPT_LABEL);
@@ -173,7 +173,7 @@ describe("renderReport", () => {
   });
 
   it("shows the shipped size and the header's draft and compiled quality", () => {
-    // The values come from the model file itself (runtime/FORMAT.md header metrics); the page
+    // The values come from the model file itself (runtime/format/FORMAT.md header metrics); the page
     // must print them unchanged (common practice, no source).
     const draft = model.meta.metrics.draft as { accuracy: number };
     const compiled = model.meta.metrics.compiled as { accuracy: number };

@@ -2,8 +2,8 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "n
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { build } from "../../../compiler/build.ts";
-import { defaultBuildSettings } from "../../../compiler/build-settings.ts";
+import { build } from "../../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../../compiler/build/build-settings.ts";
 import { reportCommand } from "../../../compiler/cli/commands/report-command.ts";
 import { UsageError } from "../../../compiler/cli/parse-args.ts";
 import { reportExamples } from "./report-test-model.ts";

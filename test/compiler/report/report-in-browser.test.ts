@@ -9,11 +9,11 @@ import { dirname, join, resolve } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { chromium, type Browser, type Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { build } from "../../../compiler/build.ts";
-import { defaultBuildSettings } from "../../../compiler/build-settings.ts";
+import { build } from "../../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../../compiler/build/build-settings.ts";
 import { readExamples, type Example } from "../../../compiler/read/index.ts";
 import { renderReport } from "../../../compiler/report/render-report.ts";
-import { loadModel } from "../../../runtime/load-model.ts";
+import { loadModel } from "../../../runtime/format/load-model.ts";
 import { buildReportModel, SCRIPT_LABEL } from "./report-test-model.ts";
 
 const REPO = resolve(dirname(fileURLToPath(import.meta.url)), "../../..");

@@ -2,10 +2,10 @@
 // (so escaping is exercised everywhere a label appears), texts that carry markup, and a few
 // deliberately mislabelled examples so the report has mistakes, curves and intervals to draw.
 
-import { build } from "../../../compiler/build.ts";
-import { defaultBuildSettings } from "../../../compiler/build-settings.ts";
-import { loadModel } from "../../../runtime/load-model.ts";
-import type { Model } from "../../../runtime/model.ts";
+import { build } from "../../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../../compiler/build/build-settings.ts";
+import { loadModel } from "../../../runtime/format/load-model.ts";
+import type { Model } from "../../../runtime/model/model.ts";
 import type { ReportExample } from "../../../compiler/report/report-data.ts";
 
 /** A label that would run script if the report printed it raw. */

@@ -6,7 +6,7 @@
 //      with learning rate 0 returns (it reports the loss before updating, and moves nothing).
 // Checking gradients by central differences is common practice, no source.
 //
-// Model (the same as runtime/model.ts): hidden h = Σ_f w_f·r_f / W with W = Σ_f w_f over the
+// Model (the same as runtime/model/model.ts): hidden h = Σ_f w_f·r_f / W with W = Σ_f w_f over the
 // example's feature occurrences f (w_f = 1, or the row's IDF under TF-IDF), logits
 // z_k = b_k + O_k·h. With g_k = ∂L/∂z_k:
 //   ∂L/∂O_kj = g_k·h_j,   ∂L/∂b_k = g_k,   ∂L/∂r_row = (Σ_{f with row_f = row} w_f / W) · Σ_k g_k·O_k
@@ -14,7 +14,7 @@
 //   softmax:  L = −log p_gold,  p = softmax(z),         g_k = p_k − [k = gold]
 //   sigmoid:  L = Σ_k −log σ(±z_k) (+ for gold labels), g_k = σ(z_k) − [k gold]
 //   tree:     L = Σ_{nodes on gold's path} −log σ(d·z_node), d = +1 toward the first child,
-//             −1 toward the second (runtime/label-tree.ts), so g_node = −d·σ(−d·z_node)
+//             −1 toward the second (runtime/model/label-tree.ts), so g_node = −d·σ(−d·z_node)
 //
 // Tolerances, and why. The draft stores Float32; all arithmetic here and in the steps is float64.
 //   - Step vs analytic gradient: the only difference is the float32 rounding of each stored
@@ -28,7 +28,7 @@
 //     |fd − g| ≤ 3e-6 + 1e-4·|g| (measured worst case 1.6e-6, for a bias).
 
 import { describe, expect, it } from "vitest";
-import { huffmanTree, treePaths } from "../../../compiler/compile/huffman.ts";
+import { huffmanTree, treePaths } from "../../../compiler/train/huffman.ts";
 import { createDraft, type Draft } from "../../../compiler/train/draft.ts";
 import { createRandom } from "../../../compiler/train/random.ts";
 import { createStepScratch, sigmoidStep, softmaxStep, treeStep, type TreePaths } from "../../../compiler/train/steps.ts";
@@ -258,7 +258,7 @@ describe.each(CASES)("the %s step", (_, head, tfidf) => {
 
 describe("the tree head's paths", () => {
   it("follow the Huffman tree's child table, first child +1 and second −1", () => {
-    // runtime/label-tree.ts: an inner node sends a text to its first child with probability σ(logit).
+    // runtime/model/label-tree.ts: an inner node sends a text to its first child with probability σ(logit).
     const tree = huffmanTree(LABEL_COUNTS);
     const paths = treePaths(tree, LABELS.length);
     for (let label = 0; label < LABELS.length; label++) {

@@ -6,8 +6,8 @@ import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { Log, LogLevel, Miniflare, type MiniflareOptions } from "miniflare";
-import { loadModel } from "../../../runtime/load-model.ts";
-import type { Model } from "../../../runtime/model.ts";
+import { loadModel } from "../../../runtime/format/load-model.ts";
+import type { Model } from "../../../runtime/model/model.ts";
 import { buildWorkerBundle, type WorkerBundle } from "../../../scripts/build-worker.ts";
 import { DEMO_ROUTING_MODEL_PATH, ensureDemoModel } from "../../../scripts/demo-model.ts";
 

@@ -1,0 +1,68 @@
+// The Sluice Worker: the HTTP API (fetch) and e-mail ingress (email) over two bundled models.
+//   - moderation (demo: contact form, ok / spam / abusive) serves every HTTP route and is the
+//     e-mail handler's first step (block → refuse, review → a person);
+//   - routing (demo: support topics) picks the team an allowed e-mail is forwarded to.
+// Each model is a Data module (an ArrayBuffer) parsed once per isolate, at module scope, so
+// requests only score. Config comes from the bindings ([vars], secrets, [[ratelimits]]).
+// `sluice serve` reuses createApp from runtime/worker/create-app.ts on Node (one model, no e-mail).
+
+import moderationBytes from "../../demo-data/models/worker-contact-form.sluice";
+import routingBytes from "../../demo-data/models/worker-support-topics.sluice";
+import { loadModel } from "../format/load-model.ts";
+import { errorResponse } from "./api-error.ts";
+import { appConfigFromEnv, ConfigError } from "./app-config.ts";
+import { createApp, type SluiceApp } from "./create-app.ts";
+import { handleEmail } from "./handle-email.ts";
+import type { IncomingEmailMessage, WorkerEnv, WorkerExecutionContext } from "./platform-types.ts";
+
+export { createApp } from "./create-app.ts";
+export type { SluiceApp } from "./create-app.ts";
+export { appConfigFromEnv, resolveAppConfig, DEFAULT_APP_CONFIG, ConfigError } from "./app-config.ts";
+export type { AppConfig, EmailConfig } from "./app-config.ts";
+export type { EmailModels, EmailOutcome } from "./route-email.ts";
+
+const moderationModel = loadModel(moderationBytes);
+const routingModel = loadModel(routingBytes);
+const emailModels = { moderation: moderationModel, routing: routingModel };
+
+// The platform passes the same env object to every request of an isolate; the app is
+// rebuilt only if it changes (e.g. a new deployment of vars), never per request.
+let cachedEnv: WorkerEnv | null = null;
+let cachedApp: SluiceApp | null = null;
+
+function appFor(env: WorkerEnv): SluiceApp {
+  if (cachedApp === null || cachedEnv !== env) {
+    cachedApp = createApp(moderationModel, appConfigFromEnv(env));
+    cachedEnv = env;
+  }
+  return cachedApp;
+}
+
+export default {
+  /** HTTP: the Sluice API and the playground page. */
+  async fetch(request: Request, env: WorkerEnv, ctx: WorkerExecutionContext): Promise<Response> {
+    let app: SluiceApp;
+    try {
+      app = appFor(env);
+    } catch (error) {
+      if (!(error instanceof ConfigError)) throw error;
+      console.error(`sluice: invalid configuration: ${error.message}`);
+      return errorResponse("bad-config", "the server's configuration is invalid; the details are in its log");
+    }
+    return app.fetch(request, env, ctx);
+  },
+
+  /** E-mail Routing: moderate, then forward to the topic's team, a person, or refuse by policy. */
+  async email(message: IncomingEmailMessage, env: WorkerEnv, ctx: WorkerExecutionContext): Promise<void> {
+    void ctx; // nothing runs after the message is handled
+    let config;
+    try {
+      config = appConfigFromEnv(env).email;
+    } catch (error) {
+      // Throwing leaves the message to the platform's error handling; say why in the log.
+      if (error instanceof ConfigError) console.error(`sluice: invalid configuration, e-mail not handled: ${error.message}`);
+      throw error;
+    }
+    await handleEmail(emailModels, config, message);
+  },
+};

@@ -1,0 +1,144 @@
+// The golden files pin each format version byte for byte: if the writer or the loader changes
+// the meaning of any byte, these checks fail, and the change must bump FORMAT_VERSION,
+// update runtime/format/FORMAT.md and write a new golden file (npm run golden) beside the old ones,
+// which the loader must keep reading. tiny.sluice is version 1 (hidden-space rows and an
+// output layer); tiny-v2.sluice is version 2 with logit rows (the output layer multiplied in).
+// The values below were recorded from the files when they were made; the layout checks
+// decode the bytes by hand, independently of the loader.
+import { readFileSync } from "node:fs";
+import { unpack } from "msgpackr";
+import { describe, expect, it } from "vitest";
+import { crc32, loadModel, ModelFormatError } from "../../../runtime/index.ts";
+
+const bytes = new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny.sluice", import.meta.url)));
+const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+
+describe("the version 1 golden model file", () => {
+  it("starts with the magic number and format version 1", () => {
+    expect(Array.from(bytes.subarray(0, 8))).toEqual([0x89, 0x53, 0x4c, 0x55, 0x49, 0x43, 0x45, 0x0a]);
+    expect(view.getUint16(8, true)).toBe(1);
+    expect(view.getUint16(10, true)).toBe(0);
+  });
+
+  it("has a MessagePack header any reader can decode, with the recorded fields", () => {
+    const headerLength = view.getUint32(12, true);
+    expect(headerLength).toBe(838);
+    const header = unpack(bytes.subarray(16, 16 + headerLength)) as Record<string, any>;
+    expect(header.labels).toEqual(["billing", "shipping"]);
+    expect(header.head).toBe("softmax");
+    expect(header.dims).toBe(4);
+    expect(header.rowCount).toBe(40);
+    expect(header.featurizer).toEqual({ normalization: 1, wordSpan: 2, charMin: 0, charMax: 0, hashBits: 12, hashSeed: 0, maxTokens: 2000 });
+    expect(header.precision).toBe("int8");
+    expect(header.quantization).toEqual({ scheme: "symmetric-per-row", bits: 8 });
+    expect(header.index).toEqual({ bucketBits: 5, lowBits: 7 });
+    expect(header.provenance.builtAt).toBe("2026-01-01T00:00:00.000Z");
+  });
+
+  it("lists its sections at the recorded 8-aligned offsets", () => {
+    const directory = 856;
+    expect(view.getUint32(directory, true)).toBe(7);
+    const entries = Array.from({ length: 7 }, (_, i) => {
+      const at = directory + 8 + 16 * i;
+      return [view.getUint32(at, true), view.getUint32(at + 4, true), view.getUint32(at + 8, true), view.getUint32(at + 12, true)];
+    });
+    // [id, element type, offset, byte length]: slotBuckets u16, slotKeys u8, rows i8, rowScales f32, outputWeights i8, outputScales f32, outputBias f32
+    expect(entries).toEqual([
+      [1, 3, 976, 66],
+      [2, 1, 1048, 40],
+      [4, 2, 1088, 160],
+      [3, 5, 1248, 160],
+      [7, 2, 1408, 8],
+      [6, 5, 1416, 8],
+      [8, 5, 1424, 8],
+    ]);
+    for (const [, , offset] of entries) expect(offset % 8).toBe(0);
+  });
+
+  it("ends with the CRC-32 of everything before it", () => {
+    expect(bytes.length).toBe(1436);
+    expect(view.getUint32(bytes.length - 4, true)).toBe(crc32(bytes, 0, bytes.length - 4));
+    expect(loadModel(bytes).meta.version).toBe("622a3296");
+  });
+
+  it("scores texts exactly as when it was recorded", () => {
+    const model = loadModel(bytes);
+    expect(model.classify("refund my parcel", { top: 2 })).toEqual([
+      { label: "billing", score: Math.fround(0.5585723519325256) },
+      { label: "shipping", score: Math.fround(0.44142767786979675) },
+    ]);
+    expect(Array.from(model.score("where is my refund").scores)).toEqual([0.47352010011672974, 0.5264798998832703]);
+  });
+
+  it("is refused with a clear message when its version is one this runtime does not know", () => {
+    const future = bytes.slice();
+    new DataView(future.buffer).setUint16(8, 3, true);
+    expect(() => loadModel(future)).toThrowError(ModelFormatError);
+    expect(() => loadModel(future)).toThrowError(/format version 3 is not supported: this runtime reads version 1, 2/);
+  });
+});
+
+const bytesV2 = new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v2.sluice", import.meta.url)));
+const viewV2 = new DataView(bytesV2.buffer, bytesV2.byteOffset, bytesV2.byteLength);
+
+describe("the version 2 golden model file (logit rows)", () => {
+  it("starts with the magic number and format version 2", () => {
+    expect(Array.from(bytesV2.subarray(0, 8))).toEqual([0x89, 0x53, 0x4c, 0x55, 0x49, 0x43, 0x45, 0x0a]);
+    expect(viewV2.getUint16(8, true)).toBe(2);
+    expect(viewV2.getUint16(10, true)).toBe(0);
+  });
+
+  it("declares logit rows in its header", () => {
+    const headerLength = viewV2.getUint32(12, true);
+    expect(headerLength).toBe(1010);
+    const header = unpack(bytesV2.subarray(16, 16 + headerLength)) as Record<string, any>;
+    expect(header.rowSpace).toBe("logits");
+    expect(header.dims).toBe(4);
+    expect(header.outputCount).toBe(2);
+    expect(header.rowCount).toBe(40);
+    // Version 2: row scales as one-byte codes (format.ts, rowScaleOfCode); no TF-IDF here, so no weight step.
+    expect(header.quantization).toEqual({ scheme: "symmetric-per-row", bits: 8, rowScaleCodes: "log2-eighths", weightStep: null });
+  });
+
+  it("lists rows of outputCount values, one-byte row scale codes and no output layer", () => {
+    const directory = 1032;
+    expect(viewV2.getUint32(directory, true)).toBe(5);
+    const entries = Array.from({ length: 5 }, (_, i) => {
+      const at = directory + 8 + 16 * i;
+      return [viewV2.getUint32(at, true), viewV2.getUint32(at + 4, true), viewV2.getUint32(at + 8, true), viewV2.getUint32(at + 12, true)];
+    });
+    // slotBuckets u16, slotKeys u8, rows i8 (40 rows × 2 logits), rowScales u8 codes, outputBias f32
+    expect(entries).toEqual([
+      [1, 3, 1120, 66],
+      [2, 1, 1192, 40],
+      [4, 2, 1232, 80],
+      [3, 1, 1312, 40],
+      [8, 5, 1352, 8],
+    ]);
+  });
+
+  it("ends with the CRC-32 of everything before it and scores texts exactly as when it was recorded", () => {
+    expect(bytesV2.length).toBe(1364);
+    expect(viewV2.getUint32(bytesV2.length - 4, true)).toBe(crc32(bytesV2, 0, bytesV2.length - 4));
+    const model = loadModel(bytesV2);
+    expect(model.meta.version).toBe("d859c089");
+    expect(model.meta.rowSpace).toBe("logits");
+    expect(model.classify("refund my parcel", { top: 2 })).toEqual([
+      { label: "billing", score: Math.fround(0.5584453344345093) },
+      { label: "shipping", score: Math.fround(0.4415546655654907) },
+    ]);
+    expect(Array.from(model.score("where is my refund").scores)).toEqual([0.47312408685684204, 0.526875913143158]);
+  });
+
+  it("scores like the version 1 file of the same training data, up to quantization", () => {
+    // Same examples and settings; version 1 quantized rows and output layer separately,
+    // version 2 quantizes their product once, so scores agree to a few thousandths.
+    const v1 = loadModel(bytes);
+    const v2 = loadModel(bytesV2);
+    for (const text of ["refund my parcel", "where is my refund", "invoice late delivery", "charged twice"]) {
+      const a = v1.score(text).scores;
+      const b = v2.score(text).scores;
+      for (let k = 0; k < a.length; k++) expect(Math.abs(a[k] - b[k])).toBeLessThan(0.005);
+    }
+  });
+});
