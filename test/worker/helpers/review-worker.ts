@@ -6,6 +6,7 @@ import { readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import type { MiniflareOptions } from "miniflare";
 import { decideText } from "../../../runtime/worker/decide-text.ts";
+import type { D1Database } from "../../../runtime/worker/reviews/d1-types.ts";
 import { demoModel, startWorker, type RunningWorker } from "./worker-fixture.ts";
 
 export const REPO = join(import.meta.dirname, "..", "..", "..");
@@ -13,7 +14,8 @@ export const MIGRATIONS = join(REPO, "migrations");
 export const REVIEWER_TOKEN = "reviewer-t0ken-7a1c";
 export const API_TOKEN = "api-t0ken-93bd";
 
-export type D1 = Awaited<ReturnType<RunningWorker["miniflare"]["getD1Database"]>>;
+/** The test's view of the database: the same D1 API the Worker uses. */
+export type D1 = D1Database;
 
 export interface ReviewWorker extends RunningWorker {
   db: D1;
@@ -36,7 +38,7 @@ export function migrationStatements(): string[] {
 export async function startReviewWorker(bindings: Record<string, string> = {}, options: Partial<MiniflareOptions> & { migrate?: boolean } = {}): Promise<ReviewWorker> {
   const { migrate = true, ...rest } = options;
   const worker = await startWorker({ REVIEWER_TOKEN, CANDIDATE: "off", ...bindings }, { d1Databases: ["REVIEWS"], ...rest } as Partial<MiniflareOptions>);
-  const db = await worker.miniflare.getD1Database("REVIEWS");
+  const db = (await worker.miniflare.getD1Database("REVIEWS")) as unknown as D1;
   if (migrate) await db.batch(migrationStatements().map((sql) => db.prepare(sql)));
   return { ...worker, db };
 }

@@ -74,7 +74,8 @@ describe("retention", () => {
         .bind(createdAt, name)
         .run();
     }
-    const scheduled = await textOff.miniflare.getWorker();
+    // Miniflare's Fetcher of the Worker also carries scheduled() (miniflare 4 docs, "getWorker").
+    const scheduled = (await textOff.miniflare.getWorker()) as unknown as { scheduled(options: { scheduledTime: Date; cron: string }): Promise<unknown> };
     await scheduled.scheduled({ scheduledTime: new Date(now), cron: "17 3 * * *" });
     const kept = (await textOff.db.prepare("SELECT model_version FROM review_items ORDER BY created_at").all<{ model_version: string }>()).results.map((r) => r.model_version);
     expect(kept).toEqual(["atCutoff", "recent"]);
