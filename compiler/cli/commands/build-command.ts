@@ -8,7 +8,8 @@ import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type 
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { optionsOf } from "../command-table.ts";
-import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
+import { parseArgs, UsageError, valueOf, type ParsedArgs } from "../parse-args.ts";
+import type { Example } from "../../read/index.ts";
 import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256OfFile, type FieldDefaults } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { createReadReport } from "../../read/index.ts";
@@ -36,8 +37,10 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
   const validationPath = valueOf(args, "--validation");
   const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
+  const alsoTrain = await readAlsoTrain(args, quiet);
   const common = {
     validation,
+    ...(alsoTrain !== undefined ? { alsoTrain } : {}),
     settings,
     buildTime: buildTime(),
     dataSha256: await sha256OfFile(dataPath),
@@ -49,6 +52,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const onDisk = args.switches.get("--on-disk") === true || statSync(dataPath).size > ON_DISK_ABOVE_BYTES;
   let result: Awaited<ReturnType<typeof build>>;
   if (onDisk) {
+    if (alsoTrain !== undefined) throw new UsageError("--also needs an in-memory build; it cannot be combined with --on-disk (or base data over 256 MiB)");
     if (settings.threads > 1) say("note: building on disk trains with one thread");
     const readReport = createReadReport(dataPath);
     result = await buildFromFile({ ...common, path: dataPath, readOptions: readOptionsFrom(args, fields, true), readReport, validation });
@@ -64,6 +68,24 @@ export async function buildCommand(argv: string[]): Promise<number> {
   if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
   else process.stdout.write(`${describeBuild(out, report)}\n`);
   return 0;
+}
+
+/**
+ * The --also files (read in the review export's layout: `text` and `label`, whatever the base
+ * data's fields) and --also-weight, the number of times each of their examples is trained on.
+ */
+async function readAlsoTrain(args: ParsedArgs, quiet: boolean): Promise<{ examples: Example[]; repeat: number } | undefined> {
+  const paths = args.values.get("--also") ?? [];
+  const rawWeight = valueOf(args, "--also-weight");
+  const repeat = rawWeight === undefined ? 1 : Number(rawWeight);
+  if (!Number.isInteger(repeat) || repeat < 1 || repeat > 20) throw new UsageError(`--also-weight: expected an integer from 1 to 20, got "${rawWeight}"`);
+  if (paths.length === 0) {
+    if (rawWeight !== undefined) throw new UsageError("--also-weight needs --also <file>");
+    return undefined;
+  }
+  const examples: Example[] = [];
+  for (const path of paths) examples.push(...(await readData(path, parseArgs([], {}), READ_DEFAULTS, true, quiet)).examples);
+  return { examples, repeat };
 }
 
 /** The reading settings used when neither flags nor a config name them. */

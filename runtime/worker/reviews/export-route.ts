@@ -3,8 +3,12 @@
 // training or evaluation example: `sluice build base.csv --also reviews.jsonl`,
 // `sluice eval live.sluice reviews.jsonl` (the text is in "text", the label in "label").
 // Skipped items and items stored without text (REVIEW_STORE_TEXT off) are not exported.
+// When the live model was built from one text field and one label field of other names
+// (provenance), each line carries the text and label under those names too, so
+// `sluice eval` and `sluice compare` read the file with the model's own field defaults.
 
 import type { Handler } from "hono";
+import type { Model } from "../../index.ts";
 import { databaseOf, withDatabase } from "./reviews-routes.ts";
 import type { ReviewLoop } from "./review-loop.ts";
 import { decidedWithText } from "./review-queue.ts";
@@ -13,9 +17,10 @@ const PAGE = 200;
 
 /**
  * The export handler.
- * @example app.get("/v1/reviews/export", exportReviewsRoute(loop))
+ * @example app.get("/v1/reviews/export", exportReviewsRoute(model, loop))
  */
-export function exportReviewsRoute(loop: ReviewLoop | null): Handler {
+export function exportReviewsRoute(model: Model, loop: ReviewLoop | null): Handler {
+  const { textField, labelField } = modelFields(model);
   return async (c) => {
     const db = databaseOf(loop);
     // The first page is read before answering, so a failing database is a 503, not a cut-off 200.
@@ -37,6 +42,8 @@ export function exportReviewsRoute(loop: ReviewLoop | null): Handler {
             source: row.source,
             id: row.id,
             decidedAt: new Date(row.decided_at ?? 0).toISOString(),
+            ...(textField !== null ? { [textField]: row.text } : {}),
+            ...(labelField !== null ? { [labelField]: row.decided_label } : {}),
           }),
         );
         controller.enqueue(encoder.encode(`${lines.join("\n")}\n`));
@@ -46,4 +53,14 @@ export function exportReviewsRoute(loop: ReviewLoop | null): Handler {
     });
     return c.body(body, 200, { "content-type": "application/x-ndjson; charset=utf-8", "content-disposition": 'attachment; filename="reviews.jsonl"' });
   };
+}
+
+const EXPORT_KEYS = new Set(["text", "label", "modelLabel", "modelScore", "modelVersion", "source", "id", "decidedAt"]);
+
+/** The model's own text and label field names, when they differ from "text" / "label" and can be written. */
+function modelFields(model: Model): { textField: string | null; labelField: string | null } {
+  const fields = model.meta.provenance.fields as { text?: unknown; label?: unknown } | null | undefined;
+  const text = Array.isArray(fields?.text) && fields.text.length === 1 && typeof fields.text[0] === "string" ? fields.text[0] : null;
+  const label = typeof fields?.label === "string" ? fields.label : null;
+  return { textField: text !== null && !EXPORT_KEYS.has(text) ? text : null, labelField: label !== null && !EXPORT_KEYS.has(label) ? label : null };
 }

@@ -28,7 +28,7 @@ export const REVIEW_LOOP_ROUTES: Record<string, "GET" | "POST"> = {
 export function mountReviewLoop(app: Hono<{ Variables: SecureHeadersVariables }>, model: Model, loop: ReviewLoop | null): void {
   app.get("/review", (c) => c.html(reviewPage(model, c.get("secureHeadersNonce") ?? "")));
   app.get("/v1/reviews", listReviewsRoute(model, loop));
-  app.get("/v1/reviews/export", exportReviewsRoute(loop));
+  app.get("/v1/reviews/export", exportReviewsRoute(model, loop));
   app.post("/v1/reviews/:id", decideReviewRoute(model, loop));
   app.get("/v1/stats", statsRoute(model, loop));
   app.get("/v1/shadow", shadowRoute(model, loop));

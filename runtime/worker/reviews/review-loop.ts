@@ -81,7 +81,8 @@ export class ReviewLoop {
       const { text, decision } = observation;
       const now = Date.now();
       const scores = this.model.classify(text, { top: Math.min(STORED_SCORES, this.model.labels.length) });
-      const statements: D1PreparedStatement[] = countDecision(db, now, this.model.meta.version, decision, scores[0]?.score ?? Number.NaN);
+      const top = scores[0] ?? { label: decision.label, score: Number.NaN };
+      const statements: D1PreparedStatement[] = countDecision(db, now, this.model.meta.version, decision.action, top);
       if (isReview) {
         const { storeText, hashKey } = this.config;
         statements.push(

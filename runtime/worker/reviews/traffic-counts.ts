@@ -1,4 +1,4 @@
-// Per-hour traffic counts in D1: how many decisions had each action, each label, and a top
+// Per-hour traffic counts in D1: how many decisions had each action, each top label, and a top
 // score in each tenth of [0, 1]. One UPSERT per count, in the request's batch. No text and
 // no per-message data: only counters, which the report compares with the validation split.
 
@@ -21,14 +21,14 @@ export function scoreBucket(score: number): string {
   return (tenth / 10).toFixed(1);
 }
 
-/** The UPSERTs counting one decision. */
-export function countDecision(db: D1Database, now: number, modelVersion: string, decision: { action: string; label: string }, topScore: number): D1PreparedStatement[] {
+/** The UPSERTs counting one decision: its action, and the model's top label and top score. */
+export function countDecision(db: D1Database, now: number, modelVersion: string, action: string, top: { label: string; score: number }): D1PreparedStatement[] {
   const upsert = "INSERT INTO traffic_hourly (hour, model_version, kind, key, count) VALUES (?, ?, ?, ?, 1) ON CONFLICT (hour, model_version, kind, key) DO UPDATE SET count = count + 1";
   const hour = hourOf(now);
   return [
-    db.prepare(upsert).bind(hour, modelVersion, "action", decision.action),
-    db.prepare(upsert).bind(hour, modelVersion, "label", decision.label),
-    db.prepare(upsert).bind(hour, modelVersion, "score", scoreBucket(topScore)),
+    db.prepare(upsert).bind(hour, modelVersion, "action", action),
+    db.prepare(upsert).bind(hour, modelVersion, "label", top.label),
+    db.prepare(upsert).bind(hour, modelVersion, "score", scoreBucket(top.score)),
   ];
 }
 
