@@ -15,31 +15,19 @@ import { loadModel } from "../runtime/index.ts";
 import { decideText } from "../runtime/worker/decide-text.ts";
 import type { D1Database } from "../runtime/worker/reviews/d1-types.ts";
 import { buildWorkerBundle } from "./build-worker.ts";
+import { integerFlag, percentile } from "./load-options.ts";
 import { DEMO_MODEL_PATH } from "./demo-model.ts";
 
-function option(name: string, fallback: number, max: number): number {
-  const index = process.argv.indexOf(name);
-  if (index < 0) return fallback;
-  const value = Number(process.argv[index + 1]);
-  if (!Number.isInteger(value) || value < 1 || value > max) throw new Error(`${name}: expected an integer from 1 to ${max}`);
-  return value;
-}
-
-const REQUESTS = option("--requests", 20_000, 200_000);
-const CONCURRENCY = option("--concurrency", 64, 512);
-const ROUNDS = option("--rounds", 1, 5);
-const SECONDS = option("--seconds", 300, 900);
+const REQUESTS = integerFlag("--requests", 20_000, 200_000);
+const CONCURRENCY = integerFlag("--concurrency", 64, 512);
+const ROUNDS = integerFlag("--rounds", 1, 5);
+const SECONDS = integerFlag("--seconds", 300, 900);
 const REVIEWER_TOKEN = "load-check-reviewer-token";
 
 const texts = readFileSync(new URL("../demo-data/contact-form.jsonl", import.meta.url), "utf8")
   .trim()
   .split("\n")
   .map((line) => (JSON.parse(line) as { message: string }).message);
-
-function percentile(sorted: Float64Array, p: number): number {
-  // Nearest-rank percentile (common practice, no source).
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
-}
 
 /** The statements of the migration files, in order (comments stripped). */
 function migrationStatements(): string[] {
