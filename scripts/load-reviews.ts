@@ -112,7 +112,9 @@ async function run(mode: "off" | "on"): Promise<RunResult> {
           else if ((body.action === "review") !== isReview[index % texts.length]) fail(`action ${body.action} where the Node reference says otherwise`);
           if (body.action === "review") expectedReviews++;
         } catch (error) {
-          fail((error as Error).name);
+          // fetch's TypeError says only "fetch failed"; the cause has the socket's error code.
+          const cause = (error as { cause?: { code?: string; message?: string } }).cause;
+          fail(`${(error as Error).name}${cause ? ` (${cause.code ?? cause.message ?? "?"})` : ""}`);
         }
         latencies[completed++] = performance.now() - begin;
       }
