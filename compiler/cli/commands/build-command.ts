@@ -1,10 +1,11 @@
 // `sluice build <data> --out model.sluice`: read → train → prune → quantize → verify → write.
 
-import { readFileSync, statSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { basename } from "node:path";
 import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
-import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
+import { BUILD_SETTINGS, parseSetting, parseSize, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
+import { chooseBuildPath } from "../choose-build-path.ts";
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { optionsOf } from "../command-table.ts";
@@ -17,8 +18,6 @@ import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
 
-/** Data files above this size are built on disk (bounded memory) without being asked. */
-const ON_DISK_ABOVE_BYTES = 256 * 1024 * 1024;
 
 /** Runs the build command; returns the exit code. */
 export async function buildCommand(argv: string[]): Promise<number> {
@@ -52,7 +51,9 @@ export async function buildCommand(argv: string[]): Promise<number> {
     onMessage: say,
     fields: { text: fields.textFields, label: fields.labelField, ...(fields.labelSep !== undefined ? { labelSep: fields.labelSep } : {}) },
   };
-  const onDisk = args.switches.get("--on-disk") === true || statSync(dataPath).size > ON_DISK_ABOVE_BYTES;
+  const choice = chooseBuildPath(dataPath, settings, { forceOnDisk: args.switches.get("--on-disk") === true, maxMemoryBytes: maxMemoryOf(args) });
+  say(choice.reason);
+  const onDisk = choice.onDisk;
   let result: Awaited<ReturnType<typeof build>>;
   if (onDisk) {
     if (settings.threads > 1) say("note: building on disk trains with one thread");
@@ -67,9 +68,21 @@ export async function buildCommand(argv: string[]): Promise<number> {
   clearProgressLine();
   for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
   writeFileAtomic(out, bytes, { force });
-  if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
-  else process.stdout.write(`${describeBuild(out, report)}\n`);
+  // getrusage's maximum resident set size (kilobytes on Linux, process.resourceUsage docs).
+  const peakMemoryBytes = process.resourceUsage().maxRSS * 1024;
+  const memory = { onDisk, buildPath: choice.reason, peakMemoryBytes, projectedMemoryBytes: Math.round(choice.projectedBytes), memoryBudgetBytes: choice.budgetBytes };
+  if (json) process.stdout.write(`${JSON.stringify({ out, ...report, ...memory })}\n`);
+  else process.stdout.write(`${describeBuild(out, report)}\npeak memory ${Math.round(peakMemoryBytes / 1024 ** 2)} MB (RSS), built ${choice.reason}\n`);
   return 0;
+}
+
+/** --max-memory SIZE in bytes, or undefined for the default budget. */
+function maxMemoryOf(args: ReturnType<typeof parseArgs>): number | undefined {
+  const text = valueOf(args, "--max-memory");
+  if (text === undefined) return undefined;
+  const bytes = parseSize(text);
+  if (bytes === null || bytes <= 0) throw new UsageError(`--max-memory: expected a size like 512m or 2g, got "${text}"`);
+  return bytes;
 }
 
 /** The reading settings used when neither flags nor a config name them. */
