@@ -4,6 +4,7 @@ import { readFileSync, statSync } from "node:fs";
 import { basename } from "node:path";
 import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
+import type { CalibrationReport } from "../../compile/calibrate.ts";
 import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
@@ -166,11 +167,17 @@ function describeBuild(out: string, report: BuildReport): string {
     "",
     `sections: ${Object.entries(report.sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
   ];
-  if (report.calibration) lines.push(`calibration: temperature ${report.calibration.temperature.toFixed(3)}, ECE ${fixed(report.calibration.eceBefore)} → ${fixed(report.calibration.eceAfter)}`);
+  if (report.calibration) lines.push(describeCalibration(report.calibration));
   if (report.policy) {
     for (const [label, rule] of Object.entries(report.policy)) {
       lines.push(`policy ${label}: ${rule.action} at ≥ ${rule.threshold.toFixed(3)}${rule.reviewFrom !== null ? `, review from ${rule.reviewFrom.toFixed(3)}` : ""} (validation precision ${fixed(rule.precision)}, recall ${fixed(rule.recall)}, review share ${fixed(rule.reviewShare)})`);
     }
   }
   return lines.join("\n");
+}
+
+/** What calibration did, in the terms it works in: it minimizes log loss; ECE is shown beside it. */
+export function describeCalibration(c: CalibrationReport): string {
+  if (c.skipped !== null) return `calibration: skipped, scores left as trained (temperature 1): ${c.skipped}`;
+  return `calibration: temperature ${c.temperature.toFixed(3)}, minimizing log loss, cross-fitted over ${c.folds} folds of ${c.examples} validation examples (${c.errors} errors): held-out log loss ${fixed(c.nllBefore, 4)} → ${fixed(c.nllAfter, 4)}; ECE ${fixed(c.eceBefore)} → ${fixed(c.eceAfter)} (ECE is not what is optimized and may rise)`;
 }

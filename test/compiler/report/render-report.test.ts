@@ -199,6 +199,15 @@ describe("renderReport", () => {
     expect(html).toContain("2026-01-01T00:00:00.000Z");
   });
 
+  it("shows provenance as sizes, counts and phrases, never raw serialized bytes or objects", () => {
+    const provenance = html.slice(html.indexOf("<h3>Build</h3>"));
+    expect(provenance).toMatch(/Bloom filter of [\d\u202f]+ training texts/);
+    // Node's Buffer JSON ({"type":"Buffer","data":[…]}), a long run of numbers, or any JSON object.
+    expect(provenance).not.toMatch(/&quot;data&quot;|"data":/);
+    expect(provenance).not.toMatch(/\d+,\d+,\d+,\d+,\d+,\d+/);
+    expect(provenance).not.toMatch(/\{&quot;|\{"/);
+  });
+
   it("is a pure function: the same inputs give the same page", () => {
     const again = renderReport(model, examples, undefined, { dataName: "<i>held-out</i>.jsonl", dataSha256: "cd".repeat(32) });
     expect(again).toBe(html);
