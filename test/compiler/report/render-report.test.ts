@@ -1,6 +1,9 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { evaluateModel } from "../../../compiler/evaluate/evaluate.ts";
 import { renderReport } from "../../../compiler/report/render-report.ts";
+import { RAMP_RULE } from "../../../compiler/report/colour-ramp.ts";
+import { escapeHtml } from "../../../compiler/report/escape-html.ts";
+import { REPORT_WORDS } from "../../../compiler/report/report-words.ts";
 import type { Model } from "../../../runtime/model/model.ts";
 import type { ReportExample } from "../../../compiler/report/report-data.ts";
 import { AMPERSAND_LABEL, buildReportModel, SCRIPT_LABEL, TEXT_PAYLOAD, TRAINING_SHA256 } from "./report-test-model.ts";
@@ -206,6 +209,12 @@ describe("renderReport", () => {
     expect(provenance).not.toMatch(/&quot;data&quot;|"data":/);
     expect(provenance).not.toMatch(/\d+,\d+,\d+,\d+,\d+,\d+/);
     expect(provenance).not.toMatch(/\{&quot;|\{"/);
+  });
+
+  it("titles axes and legends in its own words, and states the colour ramp's rule", () => {
+    for (const words of Object.values(REPORT_WORDS)) expect(html).toContain(escapeHtml(words));
+    for (const borrowed of ["predicted label", "gold label", "perfect calibration", "viridis"]) expect(html.toLowerCase()).not.toContain(borrowed);
+    expect(html).toContain(escapeHtml(RAMP_RULE));
   });
 
   it("is a pure function: the same inputs give the same page", () => {
