@@ -6,7 +6,7 @@ import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
 import type { CalibrationReport } from "../../compile/calibrate.ts";
 import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
-import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
+import { createBuildProgress } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
@@ -27,7 +27,9 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const dataPath = args.positionals[0];
   const quiet = args.switches.get("--quiet") === true;
   const json = args.switches.get("--json") === true;
+  const progress = createBuildProgress(!quiet && !json);
   const say = (message: string) => {
+    progress.clear();
     if (!quiet) process.stderr.write(`${message}\n`);
   };
   const { settings, read } = settingsFromArgs(args);
@@ -36,14 +38,15 @@ export async function buildCommand(argv: string[]): Promise<number> {
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
   const validationPath = valueOf(args, "--validation");
-  const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
+  const validation = validationPath ? await readWithProgress(validationPath, args, fields, quiet, progress) : undefined;
   const common = {
     validation,
     settings,
     buildTime: buildTime(),
     dataSha256: await sha256OfFile(dataPath),
     dataName: basename(dataPath),
-    onProgress: createProgressBar(!quiet && !json),
+    onProgress: progress.onTrain,
+    onStage: progress.onStage,
     onMessage: say,
     fields: { text: fields.textFields, label: fields.labelField, ...(fields.labelSep !== undefined ? { labelSep: fields.labelSep } : {}) },
   };
@@ -52,19 +55,31 @@ export async function buildCommand(argv: string[]): Promise<number> {
   if (onDisk) {
     if (settings.threads > 1) say("note: building on disk trains with one thread");
     const readReport = createReadReport(dataPath);
+    progress.stage(`reading and preparing ${dataPath} on disk`);
     result = await buildFromFile({ ...common, path: dataPath, readOptions: readOptionsFrom(args, fields, true), readReport, validation });
+    progress.clear();
     if (!quiet) describeReadReport(readReport);
   } else {
-    const { examples } = await readData(dataPath, args, fields, true, quiet);
+    const examples = await readWithProgress(dataPath, args, fields, quiet, progress);
+    progress.stage("preparing: featurizing, leak check, fingerprint");
     result = await build({ ...common, examples });
   }
   const { bytes, report } = result;
-  clearProgressLine();
+  progress.done();
   for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
   writeFileAtomic(out, bytes, { force });
   if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
   else process.stdout.write(`${describeBuild(out, report)}\n`);
   return 0;
+}
+
+/** Reads a data file with a status line, then prints what was read. */
+async function readWithProgress(path: string, args: ReturnType<typeof parseArgs>, fields: FieldDefaults, quiet: boolean, progress: ReturnType<typeof createBuildProgress>) {
+  progress.stage(`reading ${path}`);
+  const { examples, report } = await readData(path, args, fields, true, true);
+  progress.clear();
+  if (!quiet) describeReadReport(report);
+  return examples;
 }
 
 /** The reading settings used when neither flags nor a config name them. */
