@@ -31,10 +31,18 @@ export async function inspectCommand(argv: string[]): Promise<number> {
     `labels: ${meta.labels.join(", ")}`,
     `sections: ${Object.entries(sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
     `metrics: ${JSON.stringify({ draft: meta.metrics.draft, compiled: meta.metrics.compiled, validationExamples: meta.metrics.validationExamples })}`,
+    describeRecordedLatency(meta.metrics.latency),
     `policy: ${meta.policy ? JSON.stringify(meta.policy.rules) : "none"}`,
     `provenance: ${JSON.stringify({ ...meta.provenance, settings: undefined })}`,
     `settings: ${JSON.stringify(meta.provenance.settings ?? {})}`,
   ];
   process.stdout.write(`${lines.join("\n")}\n`);
   return 0;
+}
+
+/** The latency the build measured, when it recorded one (reproducible builds leave it out). */
+function describeRecordedLatency(latency: unknown): string {
+  const entries = latency !== null && typeof latency === "object" ? Object.values(latency as Record<string, { tokens?: unknown; microseconds?: unknown }>) : [];
+  const parts = entries.filter((l) => typeof l?.microseconds === "number" && typeof l.tokens === "number").map((l) => `${(l.microseconds as number).toFixed(1)} µs for ${l.tokens as number} tokens`);
+  return parts.length > 0 ? `latency at build (classify, the build machine): ${parts.join(", ")}` : "latency at build: not recorded (a reproducible build leaves timings out)";
 }
