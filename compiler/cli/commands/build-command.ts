@@ -4,14 +4,16 @@ import { readFileSync, statSync } from "node:fs";
 import { basename } from "node:path";
 import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
+import type { CalibrationReport } from "../../compile/calibrate.ts";
 import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
-import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
+import { createBuildProgress } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256OfFile, type FieldDefaults } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { createReadReport } from "../../read/index.ts";
+import { checkInputFile, checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
@@ -26,16 +28,23 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const dataPath = args.positionals[0];
   const quiet = args.switches.get("--quiet") === true;
   const json = args.switches.get("--json") === true;
+  const progress = createBuildProgress(!quiet && !json);
   const say = (message: string) => {
+    progress.clear();
     if (!quiet) process.stderr.write(`${message}\n`);
   };
-  const { settings, read } = settingsFromArgs(args);
   const out = valueOf(args, "--out") ?? "model.sluice";
   const force = args.switches.get("--force") === true;
+  const validationPath = valueOf(args, "--validation");
+  // Before any reading or training: a bad path must not cost a whole training run.
+  checkInputFile(dataPath, "data file");
+  checkInputFile(validationPath, "validation file");
+  checkInputFile(valueOf(args, "--config"), "config file");
+  checkOutputPath(out, { inputs: [dataPath, validationPath, valueOf(args, "--config")], force });
+  const { settings, read } = settingsFromArgs(args);
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
-  const validationPath = valueOf(args, "--validation");
-  const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
+  const validation = validationPath ? await readWithProgress(validationPath, args, fields, quiet, progress) : undefined;
   const common = {
     validation,
     settings,
@@ -43,7 +52,8 @@ export async function buildCommand(argv: string[]): Promise<number> {
     latencyInFile: process.env.SOURCE_DATE_EPOCH === undefined,
     dataSha256: await sha256OfFile(dataPath),
     dataName: basename(dataPath),
-    onProgress: createProgressBar(!quiet && !json),
+    onProgress: progress.onTrain,
+    onStage: progress.onStage,
     onMessage: say,
     fields: { text: fields.textFields, label: fields.labelField, ...(fields.labelSep !== undefined ? { labelSep: fields.labelSep } : {}) },
   };
@@ -52,19 +62,31 @@ export async function buildCommand(argv: string[]): Promise<number> {
   if (onDisk) {
     if (settings.threads > 1) say("note: building on disk trains with one thread");
     const readReport = createReadReport(dataPath);
+    progress.stage(`reading and preparing ${dataPath} on disk`);
     result = await buildFromFile({ ...common, path: dataPath, readOptions: readOptionsFrom(args, fields, true), readReport, validation });
+    progress.clear();
     if (!quiet) describeReadReport(readReport);
   } else {
-    const { examples } = await readData(dataPath, args, fields, true, quiet);
+    const examples = await readWithProgress(dataPath, args, fields, quiet, progress);
+    progress.stage("preparing: featurizing, leak check, fingerprint");
     result = await build({ ...common, examples });
   }
   const { bytes, report } = result;
-  clearProgressLine();
+  progress.done();
   for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
   writeFileAtomic(out, bytes, { force });
   if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
   else process.stdout.write(`${describeBuild(out, report)}\n`);
   return 0;
+}
+
+/** Reads a data file with a status line, then prints what was read. */
+async function readWithProgress(path: string, args: ReturnType<typeof parseArgs>, fields: FieldDefaults, quiet: boolean, progress: ReturnType<typeof createBuildProgress>) {
+  progress.stage(`reading ${path}`);
+  const { examples, report } = await readData(path, args, fields, true, true);
+  progress.clear();
+  if (!quiet) describeReadReport(report);
+  return examples;
 }
 
 /** The reading settings used when neither flags nor a config name them. */
@@ -175,11 +197,17 @@ function describeBuild(out: string, report: BuildReport): string {
     "",
     `sections: ${Object.entries(report.sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
   ];
-  if (report.calibration) lines.push(`calibration: temperature ${report.calibration.temperature.toFixed(3)}, ECE ${fixed(report.calibration.eceBefore)} → ${fixed(report.calibration.eceAfter)}`);
+  if (report.calibration) lines.push(describeCalibration(report.calibration));
   if (report.policy) {
     for (const [label, rule] of Object.entries(report.policy)) {
       lines.push(`policy ${label}: ${rule.action} at ≥ ${rule.threshold.toFixed(3)}${rule.reviewFrom !== null ? `, review from ${rule.reviewFrom.toFixed(3)}` : ""} (validation precision ${fixed(rule.precision)}, recall ${fixed(rule.recall)}, review share ${fixed(rule.reviewShare)})`);
     }
   }
   return lines.join("\n");
+}
+
+/** What calibration did, in the terms it works in: it minimizes log loss; ECE is shown beside it. */
+export function describeCalibration(c: CalibrationReport): string {
+  if (c.skipped !== null) return `calibration: skipped, scores left as trained (temperature 1): ${c.skipped}`;
+  return `calibration: temperature ${c.temperature.toFixed(3)}, minimizing log loss, cross-fitted over ${c.folds} folds of ${c.examples} validation examples (${c.errors} errors): held-out log loss ${fixed(c.nllBefore, 4)} → ${fixed(c.nllAfter, 4)}; ECE ${fixed(c.eceBefore)} → ${fixed(c.eceAfter)} (ECE is not what is optimized and may rise)`;
 }
