@@ -32,6 +32,11 @@ export interface BuildInput {
    * The report carries it either way.
    */
   latencyInFile?: boolean;
+  /**
+   * Extra training examples (e.g. reviewers' decisions exported from the review queue): they are
+   * never held out, so validation stays the base data's, and each is trained on `repeat` times.
+   */
+  alsoTrain?: { examples: readonly LabelledText[]; repeat: number };
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
