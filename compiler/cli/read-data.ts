@@ -9,6 +9,7 @@ import { valueOf, type FlagSpec, type ParsedArgs } from "./parse-args.ts";
 export const DATA_FLAGS: Record<string, FlagSpec> = {
   "--text-field": { takesValue: true, description: "field(s) holding the text, comma-separated, joined in order (default text)" },
   "--label-field": { takesValue: true, description: "field holding the label(s) (default label)" },
+  "--group-field": { takesValue: true, description: "field naming each row's origin (document, thread, source): rows of one group stay on one side of the validation split and of tune's folds" },
   "--label-sep": { takesValue: true, description: "separator of several labels in one cell" },
   "--format": { takesValue: true, description: "csv, tsv or jsonl (default: from the extension)" },
   "--skip-bad": { takesValue: false, description: "skip bad rows (reported) instead of stopping at the first" },
@@ -28,6 +29,7 @@ export function readOptionsFrom(args: ParsedArgs, defaults: FieldDefaults, requi
     textFields: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()).filter(Boolean) : defaults.textFields,
     labelField: valueOf(args, "--label-field") ?? defaults.labelField,
     labelSep: valueOf(args, "--label-sep"),
+    groupField: valueOf(args, "--group-field"),
     format: format as DataFormat | undefined,
     requireLabels,
     skipBad: args.switches.get("--skip-bad") === true,
