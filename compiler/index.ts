@@ -1,8 +1,11 @@
 // Public surface of sluice/compiler: the programmatic API the CLI is a thin shell over.
 // Everything here is pure (no file I/O) except buildFromFile, which streams a data file.
 
-export { build, compileFromSource, chooseHead, TREE_HEAD_LABEL_THRESHOLD } from "./build/build.ts";
-export type { BuildInput, BuildReport, Quality } from "./build/build.ts";
+export { build } from "./build/build.ts";
+export { compileFromSource } from "./build/compile-from-source.ts";
+export { chooseHead, TREE_HEAD_LABEL_THRESHOLD } from "./build/choose-head.ts";
+export type { BuildInput } from "./build/build-input.ts";
+export type { BuildReport, Quality } from "./build/build-report.ts";
 export { buildFromFile } from "./build/build-from-file.ts";
 export type { FileBuildInput } from "./build/build-from-file.ts";
 export { BUILD_SETTINGS, defaultBuildSettings, parseSetting, parseSize, resolveBuildSettings, SettingError } from "./build/build-settings.ts";

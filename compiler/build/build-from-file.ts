@@ -6,7 +6,11 @@
 
 import { createFeatureBuffer, createFeaturizer } from "../../runtime/featurizer/featurizer.ts";
 import { murmur3Words } from "../../runtime/featurizer/murmur3.ts";
-import { chooseHead, compileFromSource, featurizerSettingsOf, type BuildInput, type BuildReport } from "./build.ts";
+import { featurizerSettingsOf } from "./base-header.ts";
+import type { BuildInput } from "./build-input.ts";
+import type { BuildReport } from "./build-report.ts";
+import { chooseHead } from "./choose-head.ts";
+import { compileFromSource } from "./compile-from-source.ts";
 import type { LabelledText } from "../evaluate/evaluate.ts";
 import { readExamples, type ReadOptions, type ReadReport } from "../read/index.ts";
 import { leakWarning, TrainingTextCollector } from "../read/text-fingerprints.ts";

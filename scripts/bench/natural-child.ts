@@ -11,7 +11,7 @@
 
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
-import { medianMilliseconds, timeSingleCalls } from "./comparison.ts";
+import { medianMilliseconds, timeSingleCalls } from "./single-call-timing.ts";
 import type { NaturalChildMessage, NaturalJob } from "./natural-runner.ts";
 
 /** The part of natural's classifier API used here (see its lib/natural/classifiers/index.d.ts). */

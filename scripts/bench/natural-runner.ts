@@ -4,7 +4,7 @@
 import { fork } from "node:child_process";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import type { CallTimings, TimingOptions } from "./comparison.ts";
+import type { CallTimings, TimingOptions } from "./single-call-timing.ts";
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 const CHILD = join(HERE, "natural-child.ts");

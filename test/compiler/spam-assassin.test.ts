@@ -5,7 +5,8 @@
 // test/fixtures/spam-assassin.ts. Times are logged, never asserted.
 
 import { beforeAll, describe, expect, it } from "vitest";
-import { build, type BuildReport } from "../../compiler/build/build.ts";
+import { build } from "../../compiler/build/build.ts";
+import type { BuildReport } from "../../compiler/build/build-report.ts";
 import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
 import { evaluateModel, type EvaluationReport } from "../../compiler/evaluate/evaluate.ts";
 import { loadModel } from "../../runtime/format/load-model.ts";

@@ -2,7 +2,8 @@
 
 import { readFileSync, statSync } from "node:fs";
 import { basename } from "node:path";
-import { build, type BuildReport } from "../../build/build.ts";
+import { build } from "../../build/build.ts";
+import type { BuildReport } from "../../build/build-report.ts";
 import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, type BuildSettings } from "../../build/build-settings.ts";
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";

@@ -1,0 +1,44 @@
+// What a build is given: the examples and settings (in memory), or an encoded training
+// source (shared by the in-memory and the on-disk paths).
+
+import type { FeaturizerSettings } from "../../runtime/featurizer/featurizer.ts";
+import type { HeadKind } from "../../runtime/format/model-header.ts";
+import type { LabelledText } from "../evaluate/evaluate.ts";
+import type { LeakFindings } from "../read/text-fingerprints.ts";
+import type { TrainingSource } from "../train/training-source.ts";
+import type { TrainProgress } from "../train/train-draft.ts";
+import type { BuildSettings } from "./build-settings.ts";
+
+export interface BuildInput {
+  examples: readonly LabelledText[];
+  /** Validation examples; when absent, `settings.holdout` of `examples` is held out. */
+  validation?: readonly LabelledText[];
+  settings: BuildSettings;
+  /** ISO time recorded in provenance; fixed for reproducible builds. */
+  buildTime: string;
+  /** SHA-256 (hex) of the training data file, recorded in provenance. */
+  dataSha256?: string;
+  dataName?: string;
+  onProgress?: (stage: string, progress: TrainProgress) => void;
+  onMessage?: (message: string) => void;
+  /** Which data fields held the text and the label (recorded so eval and classify can default to them). */
+  fields?: { text: string[]; label: string };
+}
+
+/** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
+export interface SourceBuild {
+  input: Omit<BuildInput, "examples"> & { examples?: readonly LabelledText[]; exampleCount?: number };
+  source: TrainingSource;
+  labels: string[];
+  head: HeadKind;
+  headReason: string;
+  validation: LabelledText[];
+  featurizerSettings: FeaturizerSettings;
+  warnings: string[];
+  /** Validation texts that also occur in training (exact, after normalization). */
+  leaks?: LeakFindings;
+  /** Bloom filter of the training texts, so `eval` can warn about overlap later. */
+  trainFingerprint?: Uint8Array;
+  /** Seconds spent before this call (reading, splitting, encoding), for the report. */
+  prepareSeconds?: number;
+}

@@ -1,0 +1,152 @@
+// The stages after encoding: train the draft → measure it → prune and quantize to the budget →
+// calibrate and choose the policy → measure what ships → write → verify.
+
+import { loadModel } from "../../runtime/format/load-model.ts";
+import type { Policy } from "../../runtime/model/policy.ts";
+import { choosePolicy, type PolicyReport } from "../compile/choose-policy.ts";
+import { fitCalibration } from "../compile/calibrate.ts";
+import { chooseSigmoidThresholds } from "../compile/sigmoid-thresholds.ts";
+import { rankRows, rowImportance } from "../compile/prune.ts";
+import { shouldFoldOutput } from "../compile/fold-output.ts";
+import { sectionSizes, writeModel } from "../compile/write-model.ts";
+import { evaluateModel, scoreTexts } from "../evaluate/evaluate.ts";
+import { createDraft } from "../train/draft.ts";
+import { inverseDocumentFrequency } from "../train/encode.ts";
+import { huffmanTree, treePaths } from "../train/huffman.ts";
+import { createRandom } from "../train/random.ts";
+import { baseHeader } from "./base-header.ts";
+import type { SourceBuild } from "./build-input.ts";
+import { quality, round, roundQuality, stageClock, type BuildReport } from "./build-report.ts";
+import { compileDraft } from "./compile-draft.ts";
+import { contentsOf } from "./draft-contents.ts";
+import { fitRowsToBudget, rowBytes } from "./fit-rows-to-budget.ts";
+import { verifyRoundTrip } from "./verify-round-trip.ts";
+
+/** Train the draft from a source, then compile, calibrate, choose the policy and write. */
+export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint8Array; report: BuildReport }> {
+  const { input, source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
+  const { settings } = input;
+  const clock = stageClock(job.prepareSeconds ?? 0);
+  const say = (message: string) => input.onMessage?.(message);
+  const labelIndex = new Map(labels.map((label, i) => [label, i]));
+  const vocabulary = source.vocabulary(settings.hashBits, settings.minDocs);
+  const rowWeights = settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null;
+  const tree = head === "tree" ? huffmanTree(source.labelCounts) : null;
+  const paths = tree ? treePaths(tree, labels.length) : null;
+  const random = createRandom(settings.seed);
+  const draft = createDraft({
+    head,
+    labels,
+    dims: settings.dims,
+    slots: vocabulary.slots,
+    documentFrequency: vocabulary.documentFrequency,
+    rowWeights,
+    tree,
+    random,
+    shared: settings.threads > 1,
+  });
+  say(`training: ${source.count} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
+  const trainSettings = { epochs: settings.epochs, learningRate: settings.learningRate, seed: settings.seed };
+  clock.lap("prepare");
+  const trained = await source.train(draft, trainSettings, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
+  clock.lap("train");
+
+  const header = baseHeader(input, head, labels, featurizerSettings, source.count);
+  if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
+  const validationTexts = validation.map((e) => e.text);
+
+  // The draft as shipped would be: float32, every row.
+  const draftBytes = writeModel(contentsOf(draft, header, "float32", null, "hidden"));
+  const draftModel = loadModel(draftBytes);
+  const draftQuality = validation.length > 0 ? quality(evaluateModel(draftModel, validation)) : { accuracy: NaN, macroF1: NaN };
+
+  // Compile: prune to the budget, quantize, retrain the output layer on what survives.
+  const ranking = rankRows(rowImportance(draft));
+  const rowSpace = shouldFoldOutput(settings.foldOutput, head, header.outputCount, settings.dims) ? "logits" : "hidden";
+  const compile = (keep: number) => compileDraft(draft, ranking, keep, source, settings, header, paths, rowSpace);
+  // Decide the row count first, then prune, quantize and fine-tune once.
+  let keep = settings.keepFeatures > 0 ? Math.min(settings.keepFeatures, draft.slots.length) : draft.slots.length;
+  if (settings.maxBytes > 0) {
+    const fit = fitRowsToBudget(draft, ranking, settings, header, keep, rowSpace);
+    if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
+    keep = fit;
+  }
+  let compiled = await compile(keep);
+  clock.lap("compile");
+
+  // Calibrate and choose the policy on the validation split, with the compiled model.
+  let calibration: BuildReport["calibration"] = null;
+  let policy: Policy | null = null;
+  let policyReport: PolicyReport | null = null;
+  let thresholds: number[] | null = null;
+  if (validation.length > 0) {
+    const uncalibrated = loadModel(writeModel(compiled.contents));
+    const scored = scoreTexts(uncalibrated, validationTexts);
+    if (settings.calibrate && head !== "tree") {
+      calibration = fitCalibration(head, scored, validation, labelIndex);
+      compiled.contents.header.calibration = { temperature: calibration.temperature };
+    }
+    const calibratedScores = settings.calibrate && head !== "tree" ? scoreTexts(loadModel(writeModel(compiled.contents)), validationTexts) : scored;
+    if (head === "sigmoid") thresholds = chooseSigmoidThresholds(calibratedScores, validation, labels);
+    const chosen = choosePolicy(calibratedScores, validation, labels, settings.targetPrecision, settings.targetRecall, warnings, settings.actions, settings.reviewBelow);
+    policy = chosen.policy;
+    policyReport = chosen.report;
+    compiled.contents.header.policy = policy;
+    compiled.contents.header.thresholds = thresholds;
+  }
+  clock.lap("calibrate");
+
+  // Measure what ships, record it in the header, write the final bytes.
+  const shipped = loadModel(writeModel(compiled.contents));
+  const evaluation = validation.length > 0 ? evaluateModel(shipped, validation) : null;
+  const compiledQuality = evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN };
+  compiled.contents.header.metrics = {
+    validationExamples: validation.length,
+    draft: roundQuality(draftQuality),
+    draftBytes: draftBytes.length,
+    draftRows: draft.slots.length,
+    compiled: roundQuality(compiledQuality),
+    ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
+    labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
+  };
+  let bytes = writeModel(compiled.contents);
+  if (settings.maxBytes > 0 && bytes.length > settings.maxBytes) {
+    // The metrics made the header a little longer: drop rows until it fits, keeping the measured metrics honest.
+    while (bytes.length > settings.maxBytes && keep > 0) {
+      keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings, rowSpace === "logits" ? header.outputCount : settings.dims))));
+      const smaller = await compile(keep);
+      smaller.contents.header = { ...compiled.contents.header };
+      compiled = smaller;
+      const reloaded = loadModel(writeModel(compiled.contents));
+      const again = validation.length > 0 ? evaluateModel(reloaded, validation) : null;
+      if (again) (compiled.contents.header.metrics as Record<string, unknown>).compiled = roundQuality(quality(again));
+      bytes = writeModel(compiled.contents);
+    }
+  }
+  verifyRoundTrip(bytes, shipped, validationTexts.slice(0, 50), head);
+  clock.lap("verify");
+  const report: BuildReport = {
+    bytes: bytes.length,
+    head,
+    headReason,
+    labels,
+    trainExamples: source.count,
+    validationExamples: validation.length,
+    trainSeconds: trained.seconds,
+    stageSeconds: clock.seconds,
+    tokensPerSecond: trained.tokensPerSecond,
+    finalLoss: trained.finalLoss,
+    rows: { seen: draft.slots.length, kept: compiled.contents.slots.length },
+    draft: { ...draftQuality, bytes: draftBytes.length },
+    compiled: compiledQuality,
+    validation: evaluation
+      ? { accuracy: evaluation.accuracy, macroF1: evaluation.macroF1, microF1: evaluation.microF1, logLoss: evaluation.logLoss, ece: evaluation.ece }
+      : { accuracy: NaN, macroF1: NaN, microF1: NaN, logLoss: NaN, ece: NaN },
+    calibration,
+    policy: policyReport,
+    leaks: job.leaks ?? null,
+    sections: sectionSizes(bytes),
+    warnings,
+  };
+  return { bytes, report };
+}
