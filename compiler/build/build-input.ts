@@ -8,6 +8,8 @@ import type { LeakFindings } from "../read/text-fingerprints.ts";
 import type { TrainingSource } from "../train/training-source.ts";
 import type { TrainProgress } from "../train/train-draft.ts";
 import type { BuildSettings } from "./build-settings.ts";
+import type { SearchReport } from "./search-settings.ts";
+import type { SplitReport } from "./split-examples.ts";
 
 export interface BuildInput {
   examples: readonly LabelledText[];
@@ -23,6 +25,11 @@ export interface BuildInput {
   onMessage?: (message: string) => void;
   /** Which data fields held the text and the label (recorded so eval and classify can default to them). */
   fields?: { text: string[]; label: string };
+  /**
+   * Settings the user chose (flags, config keys); the build's search changes only the others.
+   * Absent: every setting that differs from the table's default counts as chosen.
+   */
+  explicit?: readonly (keyof BuildSettings)[];
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */
@@ -41,4 +48,8 @@ export interface SourceBuild {
   trainFingerprint?: Uint8Array;
   /** Seconds spent before this call (reading, splitting, encoding), for the report. */
   prepareSeconds?: number;
+  /** How the validation split was made. */
+  split?: SplitReport;
+  /** What the build's setting search compared and chose (null: no search). */
+  search?: SearchReport | null;
 }

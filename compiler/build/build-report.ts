@@ -3,6 +3,8 @@
 import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { PolicyReport } from "../compile/choose-policy.ts";
 import type { LeakFindings } from "../read/text-fingerprints.ts";
+import type { SearchReport } from "./search-settings.ts";
+import type { SplitReport } from "./split-examples.ts";
 
 export interface Quality {
   accuracy: number;
@@ -38,6 +40,15 @@ export interface BuildReport {
   draft: Quality & { bytes: number };
   compiled: Quality;
   validation: Quality & { microF1: number; logLoss: number; ece: number };
+  /**
+   * 95% Wilson interval of the validation accuracy (Wilson 1927). It treats validation rows as
+   * independent; rows of one group are not, so with groups the true uncertainty is wider.
+   */
+  validationInterval: { low: number; high: number } | null;
+  /** How the validation split kept groups and near-identical texts together. */
+  split: SplitReport | null;
+  /** What the build's setting search compared and chose (null: --search-time 0 or no validation). */
+  search: SearchReport | null;
   calibration: { temperature: number; eceBefore: number; eceAfter: number; nllBefore: number; nllAfter: number } | null;
   policy: PolicyReport | null;
   leaks: LeakFindings | null;

@@ -29,6 +29,8 @@ export interface BuildSettings {
   /** Multiply the output layer into the rows when there are fewer outputs than dims. */
   foldOutput: boolean;
   maxTokens: number;
+  /** Letters of scripts written without spaces (Chinese, Japanese, Thai…) become one token each. */
+  unspacedScripts: boolean;
   /** Label → precision to reach on validation data (block/route threshold). */
   targetPrecision: Record<string, number>;
   /** Label → recall to reach on validation data. */
@@ -41,9 +43,13 @@ export interface BuildSettings {
   calibrate: boolean;
   /** Store a Bloom filter of the training texts so `eval` can warn about train/test overlap. */
   fingerprint: boolean;
+  /** Seconds the build may spend choosing settings on the validation split ("auto": scaled with the data; 0: no search). */
+  searchTime: number | "auto";
+  /** The build's search never picks settings whose classify time exceeds this many µs per text (0 = no limit). */
+  maxUs: number;
 }
 
-type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "actions" | "boolean";
+type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "actions" | "boolean" | "seconds";
 
 export interface SettingSpec<K extends keyof BuildSettings> {
   flag: string;
@@ -84,6 +90,9 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   precision: { flag: "--precision", kind: "enum", values: ["int8", "float32"], default: "int8", description: "storage of rows and output weights" },
   fineTuneEpochs: { flag: "--fine-tune-epochs", kind: "int", min: 0, max: 100, default: 2, description: "epochs retraining the output layer on the compiled rows" },
   foldOutput: { flag: "--fold-output", kind: "boolean", default: true, description: "store each row's contribution to every label's logit (the output layer multiplied in) when there are fewer labels than dims: smaller and faster (--no-fold-output keeps the layer)" },
+  // On by default: it changes nothing for text in spaced scripts, and without it a sentence of
+  // Chinese or Thai is one "word" the model has almost never seen.
+  unspacedScripts: { flag: "--unspaced-scripts", kind: "boolean", default: true, description: "split scripts written without spaces (Chinese, Japanese, Thai, Lao, Khmer, Myanmar) into one token per letter, so pairs of letters act as words (--no-unspaced-scripts keeps each run as one word)" },
   maxTokens: { flag: "--max-tokens", kind: "int", min: 1, max: 1 << 20, default: 2000, description: "tokens read per text; the rest is ignored and reported" },
   targetPrecision: { flag: "--target-precision", kind: "map", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },
   targetRecall: { flag: "--target-recall", kind: "map", default: {}, description: "label=R: threshold reaching recall R on validation" },
@@ -91,6 +100,8 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   reviewBelow: { flag: "--review-below", kind: "float", min: 0, max: 1, default: 0, description: "send texts whose top score is below this to review (0 = off)" },
   calibrate: { flag: "--calibrate", kind: "boolean", default: true, description: "fit temperature scaling on validation (--no-calibrate to skip)" },
   fingerprint: { flag: "--fingerprint", kind: "boolean", default: true, description: "store a Bloom filter (~1 byte per training text) so eval can warn about overlap with training data (--no-fingerprint leaves it out)" },
+  searchTime: { flag: "--search-time", kind: "seconds", min: 0, max: 86400, default: "auto", description: "time the build may spend choosing epochs, learning rate, character n-grams and weighting on the validation split: seconds (30, 30s, 2m), auto (scaled with the data) or 0 (no search: the table's defaults)" },
+  maxUs: { flag: "--max-us", kind: "float", min: 0, max: 1e6, default: 0, description: "the build's search skips settings whose classify time (µs per validation text, measured on this machine) exceeds this (0 = no limit)" },
 };
 
 /** Settings with every default filled in. */
@@ -144,6 +155,12 @@ export function parseSetting<K extends keyof BuildSettings>(key: K, raw: unknown
       const high = (match as RegExpExecArray)[2] === undefined ? low : Number((match as RegExpExecArray)[2]);
       return checkSpan([low, high], spec.max ?? 8, fail) as BuildSettings[K];
     }
+    case "seconds": {
+      if (raw === "auto") return "auto" as BuildSettings[K];
+      const value = typeof raw === "number" ? raw : parseSeconds(String(raw));
+      if (value === null || (spec.min !== undefined && value < spec.min) || (spec.max !== undefined && value > spec.max)) fail(`auto or a time like 30, 30s, 2m (0 = off), at most ${spec.max} s`);
+      return value as BuildSettings[K];
+    }
     case "enum": {
       if (!spec.values?.includes(String(raw))) fail(`one of ${spec.values?.join(", ")}`);
       return String(raw) as BuildSettings[K];
@@ -188,6 +205,14 @@ function checkSpan(span: [number, number], max: number, fail: (expected: string)
 function checkFraction(value: unknown, fail: (expected: string) => never): number {
   if (typeof value !== "number" || !(value > 0 && value < 1)) fail("a fraction strictly between 0 and 1");
   return value as number;
+}
+
+/** "30" → 30, "30s" → 30, "2m" → 120, "1.5h" → 5400; null when malformed. */
+export function parseSeconds(text: string): number | null {
+  const match = /^\s*(\d+(?:\.\d+)?)\s*(s|m|h)?\s*$/i.exec(text);
+  if (!match) return null;
+  const unit = (match[2] ?? "s").toLowerCase();
+  return Number(match[1]) * (unit === "h" ? 3600 : unit === "m" ? 60 : 1);
 }
 
 /** "128k" → 131072, "2m" → 2097152, "4096" → 4096; null when malformed. */

@@ -8,7 +8,7 @@ export class TrainingDivergedError extends Error {
   readonly epoch: number;
   readonly learningRate: number;
   constructor(epoch: number, learningRate: number, detail: string) {
-    super(`training diverged at epoch ${epoch}: ${detail}; lower --learning-rate (now ${learningRate})`);
+    super(`training diverged${epoch > 0 ? ` at epoch ${epoch}` : ""}: ${detail}; lower --learning-rate (now ${learningRate})`);
     this.name = "TrainingDivergedError";
     this.epoch = epoch;
     this.learningRate = learningRate;

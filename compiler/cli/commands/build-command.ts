@@ -10,6 +10,7 @@ import { fixed, formatTable } from "../format-table.ts";
 import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
 import { DATA_FLAGS, describeReadReport, readData, readOptionsFrom, sha256OfFile } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
+import { describeChoice } from "../../build/search-settings.ts";
 import { createReadReport } from "../../read/index.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
@@ -42,7 +43,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const say = (message: string) => {
     if (!quiet) process.stderr.write(`${message}\n`);
   };
-  const settings = settingsFromArgs(args);
+  const { settings, explicit } = settingsFromArgs(args);
   const out = valueOf(args, "--out") ?? "model.sluice";
   const force = args.switches.get("--force") === true;
   const fields = { textFields: ["text"], labelField: "label" };
@@ -52,6 +53,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const common = {
     validation,
     settings,
+    explicit,
     buildTime: buildTime(),
     dataSha256: await sha256OfFile(dataPath),
     dataName: basename(dataPath),
@@ -80,7 +82,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
 }
 
 /** Settings from --config, then flags on top. */
-function settingsFromArgs(args: ReturnType<typeof parseArgs>): BuildSettings {
+function settingsFromArgs(args: ReturnType<typeof parseArgs>): { settings: BuildSettings; explicit: (keyof BuildSettings)[] } {
   const configPath = valueOf(args, "--config");
   let partial: Record<string, unknown> = {};
   if (configPath) {
@@ -99,21 +101,26 @@ function settingsFromArgs(args: ReturnType<typeof parseArgs>): BuildSettings {
     partial = (partial.build as Record<string, unknown>) ?? partial;
   }
   const settings = resolveBuildSettings(partial, configPath ?? "settings") as unknown as Record<string, unknown>;
+  const explicit = new Set(Object.keys(partial) as (keyof BuildSettings)[]);
   for (const [key, spec] of Object.entries(BUILD_SETTINGS)) {
     if (spec.kind === "boolean") {
       const value = args.switches.get(spec.flag);
-      if (value !== undefined) settings[key] = value;
+      if (value !== undefined) {
+        settings[key] = value;
+        explicit.add(key as keyof BuildSettings);
+      }
       continue;
     }
     const values = args.values.get(spec.flag);
     if (!values) continue;
+    explicit.add(key as keyof BuildSettings);
     if (spec.kind === "map" || spec.kind === "actions") {
       const merged: Record<string, unknown> = {};
       for (const value of values) Object.assign(merged, parseSetting(key as "targetPrecision", value, spec.flag));
       settings[key] = merged;
     } else settings[key] = parseSetting(key as keyof BuildSettings, values[values.length - 1], spec.flag);
   }
-  return settings as unknown as BuildSettings;
+  return { settings: settings as unknown as BuildSettings, explicit: [...explicit] };
 }
 
 /** Build time for provenance: SOURCE_DATE_EPOCH (reproducible-builds.org) when set, else now. */
@@ -121,6 +128,30 @@ function buildTime(): string {
   const epoch = process.env.SOURCE_DATE_EPOCH;
   if (epoch !== undefined && /^\d+$/.test(epoch)) return new Date(Number(epoch) * 1000).toISOString();
   return new Date().toISOString();
+}
+
+/** The validation interval, how the split was made, and what the search compared. */
+function describeValidation(report: BuildReport): string[] {
+  const lines: string[] = [];
+  if (report.validationInterval) {
+    lines.push("", `validation accuracy ${fixed(report.validation.accuracy)} (95% interval ${fixed(report.validationInterval.low)}–${fixed(report.validationInterval.high)}, ${report.validationExamples} texts), macro-F1 ${fixed(report.validation.macroF1)}`);
+  }
+  const split = report.split;
+  if (split && split.kind === "holdout" && split.clusteredRows > 0) {
+    lines.push(`split: ${split.clusteredRows} rows in ${split.grouped ? `groups (${split.groups} groups)` : "clusters"}${split.nearDuplicateJoins > 0 ? `, ${split.nearDuplicateJoins} near-identical texts joined` : ""} kept on one side`);
+  }
+  const search = report.search;
+  if (search) {
+    lines.push("", `settings search (${search.seconds.toFixed(1)} s of ${search.budgetSeconds.toFixed(0)} s${search.explicit.length > 0 ? `; fixed by you: ${search.explicit.join(", ")}` : ""}):`);
+    lines.push(
+      formatTable(
+        ["candidate", "accuracy", "macro-F1", "epochs", "µs/text", "verdict"],
+        search.candidates.map((c) => [c.name, fixed(c.accuracy), fixed(c.macroF1), c.epochs, c.microseconds.toFixed(1), c.verdict]),
+      ),
+    );
+    lines.push(`chosen: ${describeChoice(search)}`);
+  }
+  return lines;
 }
 
 function describeBuild(out: string, report: BuildReport): string {
@@ -137,6 +168,7 @@ function describeBuild(out: string, report: BuildReport): string {
         ["compiled (shipped)", fixed(report.compiled.accuracy), fixed(report.compiled.macroF1), report.bytes],
       ],
     ),
+    ...describeValidation(report),
     "",
     `sections: ${Object.entries(report.sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
   ];
