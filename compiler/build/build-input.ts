@@ -23,8 +23,9 @@ export interface BuildInput {
   dataName?: string;
   onProgress?: (stage: string, progress: TrainProgress) => void;
   onMessage?: (message: string) => void;
-  /** Which data fields held the text and the label (recorded so eval and classify can default to them). */
-  fields?: { text: string[]; label: string };
+  /** Which data fields held the text and the label(s), and the separator of several labels in
+   * one cell (recorded so eval, classify, compare and report read data the same way). */
+  fields?: { text: string[]; label: string; labelSep?: string };
   /**
    * Settings the user chose (flags, config keys); the build's search changes only the others.
    * Absent: every setting that differs from the table's default counts as chosen.
