@@ -27,7 +27,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   const say = (message: string) => input.onMessage?.(message);
   const labels = collectLabels(input.examples);
   if (labels.length === 0) throw new Error("no labelled examples to train on");
-  const { head, reason: headReason } = chooseHead(input.settings.head, input.examples.some((e) => e.labels.length > 1), labels.length);
+  let { head, reason: headReason } = chooseHead(input.settings.head, input.examples.some((e) => e.labels.length > 1), labels.length);
   if (head !== "sigmoid" && labels.length < 2) throw new Error(`only one label ("${labels[0]}") in the data: a ${head} head needs at least two (use --head sigmoid for one yes/no label)`);
   say(`head: ${head} (${headReason})`);
 
@@ -51,6 +51,10 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
     const searched = await searchSettings({ train, validation, labels, head, settings: input.settings, explicit, onMessage: input.onMessage });
     search = searched.report;
     settings = searched.settings;
+    if (search.chosen.head !== head) {
+      head = search.chosen.head;
+      headReason = `the build's search: higher validation macro-F1 than the ${head === "softmax" ? "tree" : "softmax"} head`;
+    }
     say(`search: chose ${describeChoice(search)} in ${search.seconds.toFixed(1)} s`);
     if (search.stoppedByBudget) warnings.push(`the setting search stopped at its time budget (${search.budgetSeconds.toFixed(0)} s) before trying every candidate; raise --search-time to try them all (the choice then depends on this machine's speed)`);
   }

@@ -28,7 +28,7 @@ export const SEARCH_MAX_EPOCHS = 40;
 /** Epochs without improvement before a candidate stops. */
 export const PATIENCE = 3;
 /** Character n-gram lengths the search tries (inside words, and over unspaced scripts). */
-export const SEARCH_CHAR_SPAN: [number, number] = [2, 4];
+export const SEARCH_CHAR_SPAN: [number, number] = [1, 4];
 /** A slower candidate (more than SLOWDOWN_LIMIT × the word-only time) must gain this much macro-F1. */
 export const SLOW_CANDIDATE_GAIN = 0.01;
 export const SLOWDOWN_LIMIT = 2;
@@ -36,7 +36,7 @@ export const SLOWDOWN_LIMIT = 2;
 export interface SearchCandidate {
   /** What this candidate changed, e.g. "char n-grams 2-4". */
   name: string;
-  settings: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims">;
+  settings: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims"> & { head: HeadKind };
   accuracy: number;
   macroF1: number;
   loss: number;
@@ -58,7 +58,7 @@ export interface SearchReport {
   stoppedByBudget: boolean;
   candidates: Omit<SearchCandidate, "diverged">[];
   /** The settings the build then used, and which of them the user fixed. */
-  chosen: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims" | "epochs">;
+  chosen: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims" | "epochs"> & { head: HeadKind };
   explicit: string[];
 }
 
@@ -122,8 +122,9 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   const candidates: SearchCandidate[] = [];
   let stoppedByBudget = false;
 
+  const headOf = (settings: BuildSettings): HeadKind => (settings.head === "auto" ? job.head : settings.head);
   const run = (name: string, settings: BuildSettings): SearchCandidate => {
-    const candidate = trainCandidate(name, settings, encode(settings), job, explicit.has("epochs"));
+    const candidate = trainCandidate(name, settings, headOf(settings), encode(settings), job, explicit.has("epochs"));
     candidates.push(candidate);
     job.onMessage?.(`search: ${name}: validation accuracy ${candidate.accuracy.toFixed(4)}, macro-F1 ${candidate.macroF1.toFixed(4)} after ${candidate.epochs} epochs (${candidate.seconds.toFixed(1)} s)`);
     return candidate;
@@ -144,7 +145,7 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     // Skip what the remaining budget cannot pay for (estimated from the best run's time).
     if (elapsed() + best.seconds * costFactor > budgetSeconds) {
       stoppedByBudget = true;
-      candidates.push({ ...best, name, settings: pickSettings(settings), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null });
+      candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null });
       return;
     }
     const candidate = run(name, settings);
@@ -165,10 +166,13 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     }
   };
   if (!explicit.has("charSpan") && base.charSpan[0] === 0) consider(`char n-grams ${SEARCH_CHAR_SPAN.join("-")}`, { charSpan: SEARCH_CHAR_SPAN }, 4);
+  // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
+  if (!explicit.has("head") && job.head === "tree") consider("softmax head", { head: "softmax" }, 3);
   if (!explicit.has("weighting")) consider(`weighting ${bestSettings.weighting === "tfidf" ? "mean" : "tfidf"}`, { weighting: bestSettings.weighting === "tfidf" ? "mean" : "tfidf" }, 1.2);
   if (!explicit.has("learningRate")) {
     const rate = bestSettings.learningRate;
-    consider(`learning rate ${rate * 2}`, { learningRate: rate * 2 }, 1);
+    // Double while doubling helps (early stopping makes a faster rate cheap to try), else halve once.
+    for (let step = 1; step <= 2 && bestSettings.learningRate === rate * 2 ** (step - 1); step++) consider(`learning rate ${rate * 2 ** step}`, { learningRate: rate * 2 ** step }, 1);
     if (bestSettings.learningRate === rate) consider(`learning rate ${rate / 2}`, { learningRate: rate / 2 }, 1.5);
   }
   if (best.verdict.startsWith("chosen") || best.verdict === "starting point") best.verdict = best.verdict === "starting point" ? "kept: no candidate did better" : best.verdict;
@@ -180,28 +184,28 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
       seconds: elapsed(),
       stoppedByBudget,
       candidates: candidates.map(({ diverged: _diverged, ...candidate }) => candidate),
-      chosen: { ...pickSettings(chosen), epochs: chosen.epochs },
+      chosen: { ...pickSettings(chosen, headOf(chosen)), epochs: chosen.epochs },
       explicit: [...explicit].filter((key) => ["charSpan", "weighting", "learningRate", "dims", "epochs"].includes(key)),
     },
   };
 }
 
-function pickSettings(settings: BuildSettings): SearchCandidate["settings"] {
-  return { charSpan: [...settings.charSpan] as [number, number], weighting: settings.weighting, learningRate: settings.learningRate, dims: settings.dims };
+function pickSettings(settings: BuildSettings, head: HeadKind): SearchCandidate["settings"] {
+  return { charSpan: [...settings.charSpan] as [number, number], weighting: settings.weighting, learningRate: settings.learningRate, dims: settings.dims, head };
 }
 
 /** Trains one candidate with early stopping and scores it; a diverged run scores −∞. */
-function trainCandidate(name: string, settings: BuildSettings, encoded: { train: EncodedExamples; validation: EncodedExamples }, job: SearchJob, fixedEpochs: boolean): SearchCandidate {
+function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, encoded: { train: EncodedExamples; validation: EncodedExamples }, job: SearchJob, fixedEpochs: boolean): SearchCandidate {
   const started = performance.now();
   const vocabulary = buildVocabulary(encoded.train, settings.hashBits, settings.minDocs);
   const trainRows = mapToRows(encoded.train, vocabulary.slots, settings.hashBits);
   const validationRows = mapToRows(encoded.validation, vocabulary.slots, settings.hashBits);
   const labelCounts = new Float64Array(job.labels.length);
   for (let i = 0; i < trainRows.labelList.length; i++) labelCounts[trainRows.labelList[i]]++;
-  const tree = job.head === "tree" ? huffmanTree(labelCounts) : null;
+  const tree = head === "tree" ? huffmanTree(labelCounts) : null;
   const paths = tree ? treePaths(tree, job.labels.length) : null;
   const random = createRandom(settings.seed);
-  const draft = createDraft({ head: job.head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random });
+  const draft = createDraft({ head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random });
   let best: DraftScores & { epoch: number } = { accuracy: 0, macroF1: -1, loss: Infinity, epoch: 0 };
   let bestLoss = Infinity;
   let stale = 0;
@@ -232,7 +236,7 @@ function trainCandidate(name: string, settings: BuildSettings, encoded: { train:
   }
   return {
     name,
-    settings: pickSettings(settings),
+    settings: pickSettings(settings, head),
     accuracy: best.accuracy,
     macroF1: best.macroF1,
     loss: best.loss,
@@ -267,5 +271,5 @@ function classifyMicroseconds(settings: BuildSettings, validation: readonly Labe
  */
 export function describeChoice(report: SearchReport): string {
   const c = report.chosen;
-  return `epochs ${c.epochs}, learning rate ${c.learningRate}, ${c.weighting} weighting, ${c.charSpan[0] === 0 ? "words only" : `char n-grams ${c.charSpan.join("-")}`}, dims ${c.dims}`;
+  return `${c.head} head, epochs ${c.epochs}, learning rate ${c.learningRate}, ${c.weighting} weighting, ${c.charSpan[0] === 0 ? "words only" : `char n-grams ${c.charSpan.join("-")}`}, dims ${c.dims}`;
 }
