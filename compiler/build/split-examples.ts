@@ -48,7 +48,7 @@ export function splitExamples(input: BuildInput, labelIndex: Map<string, number>
   }
   if (input.settings.holdout <= 0) return { train: [...input.examples], validation: [], split: { kind: "none", grouped, groups, clusters: 0, clusteredRows: 0, nearDuplicateJoins: 0, sharedWithTraining: 0 } };
   const firstLabel = input.examples.map((e) => labelIndex.get(e.labels[0]) as number);
-  const clusters = findClusters(input.examples);
+  const clusters = findClusters(input.examples, { nearDuplicates: input.settings.nearDuplicates !== "apart" });
   const split = groupedSplit(firstLabel, clusters, input.settings.holdout, input.settings.seed);
   if (grouped && groups < 20) warnings.push(`only ${groups} groups: validation measures few independent origins, so its numbers are uncertain beyond the interval shown`);
   return {

@@ -6,6 +6,7 @@
 // taken out); whole clusters then go to one side of a split or fold.
 
 import { murmur3String } from "../../runtime/featurizer/murmur3.ts";
+import { normalizeText } from "../../runtime/featurizer/normalize.ts";
 import { createRandom, shuffleInPlace } from "./random.ts";
 import { stratifiedSplit } from "./split.ts";
 
@@ -25,12 +26,13 @@ const KEY_CHARACTERS = 4000;
 const LETTERS_ONLY = /[^\p{L}]+/gu;
 
 /**
- * The near-duplicate key of a text: lower-cased letters only, in order (digits, punctuation,
+ * The near-duplicate key of a text: normalized, lower-cased letters only, in order (digits, punctuation,
  * spacing and markup between words do not count), hashed twice to 64 bits.
  * @example nearDuplicateKey("Order #123 is late!") === nearDuplicateKey("order 456 is LATE") // true
  */
 export function nearDuplicateKey(text: string): string {
-  const letters = text.slice(0, KEY_CHARACTERS).toLowerCase().replace(LETTERS_ONLY, " ").trim();
+  // The featurizer's normalization first (NFKC folds fullwidth and styled letters), so texts it reads alike share a key.
+  const letters = normalizeText(text.slice(0, KEY_CHARACTERS)).toLowerCase().replace(LETTERS_ONLY, " ").trim();
   // Texts without letters (numbers only, emoji) are never joined: they have no key.
   if (letters === "") return "";
   return `${murmur3String(letters, 0x9747b28c).toString(36)}.${murmur3String(letters, 0x2f0b3c1d).toString(36)}.${letters.length}`;
@@ -40,7 +42,7 @@ export function nearDuplicateKey(text: string): string {
  * Joins rows that share a group or a near-duplicate key (union–find, Tarjan 1975).
  * @example findClusters([{ text: "a b", group: "doc1" }, { text: "c d", group: "doc1" }]).count // 1
  */
-export function findClusters(rows: readonly { text: string; group?: string }[]): Clusters {
+export function findClusters(rows: readonly { text: string; group?: string }[], options: { nearDuplicates?: boolean } = {}): Clusters {
   const parent = Int32Array.from({ length: rows.length }, (_, i) => i);
   const find = (i: number): number => {
     while (parent[i] !== i) {
@@ -60,7 +62,7 @@ export function findClusters(rows: readonly { text: string; group?: string }[]):
       else parent[find(i)] = find(first);
     }
   }
-  for (let i = 0; i < rows.length; i++) {
+  for (let i = 0; i < rows.length && options.nearDuplicates !== false; i++) {
     const key = nearDuplicateKey(rows[i].text);
     if (key === "") continue;
     const first = byText.get(key);

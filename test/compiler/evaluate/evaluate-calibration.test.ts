@@ -60,7 +60,7 @@ describe("calibrationSummary", () => {
 describe("evaluateAll on a built model", () => {
   const CONTACT_FORM = new URL("../../../demo-data/contact-form.jsonl", import.meta.url).pathname;
   let examples: Example[] = [];
-  const settings = (calibrate: boolean): BuildSettings => ({ ...defaultBuildSettings(), epochs: 3, hashBits: 16, calibrate });
+  const settings = (calibrate: boolean): BuildSettings => ({ ...defaultBuildSettings(), epochs: 3, hashBits: 16, calibrate, searchTime: 0 });
 
   beforeAll(async () => {
     for await (const example of readExamples(CONTACT_FORM, { textFields: ["message"] })) examples.push(example);
