@@ -13,6 +13,7 @@ import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256Of
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { describeChoice } from "../../build/search-settings.ts";
 import { createReadReport } from "../../read/index.ts";
+import { checkInputFile, checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
@@ -30,12 +31,17 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const say = (message: string) => {
     if (!quiet) process.stderr.write(`${message}\n`);
   };
-  const { settings, read, explicit } = settingsFromArgs(args);
   const out = valueOf(args, "--out") ?? "model.sluice";
   const force = args.switches.get("--force") === true;
+  const validationPath = valueOf(args, "--validation");
+  // Before any reading or training: a bad path must not cost a whole training run.
+  checkInputFile(dataPath, "data file");
+  checkInputFile(validationPath, "validation file");
+  checkInputFile(valueOf(args, "--config"), "config file");
+  checkOutputPath(out, { inputs: [dataPath, validationPath, valueOf(args, "--config")], force });
+  const { settings, read, explicit } = settingsFromArgs(args);
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
-  const validationPath = valueOf(args, "--validation");
   const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
   const common = {
     validation,
