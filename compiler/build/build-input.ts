@@ -22,6 +22,8 @@ export interface BuildInput {
   dataSha256?: string;
   dataName?: string;
   onProgress?: (stage: string, progress: TrainProgress) => void;
+  /** Called as each stage after training starts ("compile", "calibrate", "verify"), so a caller can show it. */
+  onStage?: (stage: "compile" | "calibrate" | "verify") => void;
   onMessage?: (message: string) => void;
   /** Which data fields held the text and the label(s), and the separator of several labels in
    * one cell (recorded so eval, classify, compare and report read data the same way). */
@@ -31,6 +33,11 @@ export interface BuildInput {
    * Absent: every setting that differs from the table's default counts as chosen.
    */
   explicit?: readonly (keyof BuildSettings)[];
+  /**
+   * Extra training examples (e.g. reviewers' decisions exported from the review queue): they are
+   * never held out, so validation stays the base data's, and each is trained on `repeat` times.
+   */
+  alsoTrain?: { examples: readonly LabelledText[]; repeat: number };
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */

@@ -1,5 +1,6 @@
 // What a build reports: sizes, qualities of the draft and of what ships, where the time went.
 
+import type { CalibrationReport } from "../compile/calibrate.ts";
 import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { PolicyReport } from "../compile/choose-policy.ts";
 import type { LeakFindings } from "../read/text-fingerprints.ts";
@@ -49,7 +50,8 @@ export interface BuildReport {
   split: SplitReport | null;
   /** What the build's setting search compared and chose (null: --search-time 0 or no validation). */
   search: SearchReport | null;
-  calibration: { temperature: number; eceBefore: number; eceAfter: number; nllBefore: number; nllAfter: number } | null;
+  /** Temperature scaling on validation: what was kept, or why it was skipped; null without validation or with --no-calibrate. */
+  calibration: CalibrationReport | null;
   policy: PolicyReport | null;
   leaks: LeakFindings | null;
   sections: Record<string, number>;

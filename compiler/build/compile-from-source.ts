@@ -1,6 +1,7 @@
 // The stages after encoding: train the draft → measure it → prune and quantize to the budget →
 // calibrate and choose the policy → measure what ships → write → verify.
 
+import { validationTraffic } from "./validation-traffic.ts";
 import { loadModel } from "../../runtime/format/load-model.ts";
 import type { Policy } from "../../runtime/model/policy.ts";
 import { choosePolicy, type PolicyReport } from "../compile/choose-policy.ts";
@@ -90,6 +91,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     input = { ...input, settings };
   }
   clock.lap("train");
+  input.onStage?.("compile");
 
   const header = baseHeader(input, head, labels, featurizerSettings, source.count);
   if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
@@ -113,6 +115,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   }
   let compiled = await compileOrExplain(() => compile(keep), learningRate);
   clock.lap("compile");
+  input.onStage?.("calibrate");
 
   // Calibrate and choose the policy on the validation split, with the compiled model.
   let calibration: BuildReport["calibration"] = null;
@@ -135,6 +138,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     compiled.contents.header.thresholds = thresholds;
   }
   clock.lap("calibrate");
+  input.onStage?.("verify");
 
   // Measure what ships, record it in the header, write the final bytes.
   const shipped = loadModel(writeModel(compiled.contents));
@@ -148,6 +152,8 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     compiled: roundQuality(compiledQuality),
     ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
     labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
+    // What the Worker's traffic counts will be compared with (population stability in the report).
+    ...(validation.length > 0 ? { traffic: validationTraffic(shipped, validationTexts) } : {}),
   };
   let bytes = writeModel(compiled.contents);
   if (settings.maxBytes > 0 && bytes.length > settings.maxBytes) {
