@@ -16,6 +16,8 @@ export { evaluateAll } from "./evaluate/evaluate-all.ts";
 export { evaluateMultilabel } from "./evaluate/evaluate-multilabel.ts";
 export { evaluatePolicy } from "./evaluate/evaluate-policy.ts";
 export { compareModels } from "./evaluate/compare.ts";
+export { measureLatency, measureClassifyMicroseconds, textOfTokens, LATENCY_TOKENS } from "./evaluate/measure-latency.ts";
+export type { LatencyReport, TextLatency, LatencyOptions } from "./evaluate/measure-latency.ts";
 export { renderReport } from "./report/render-report.ts";
 export { tune } from "./tune/tune.ts";
 export type { TuneOptions, TuneResult, TrialResult } from "./tune/tune.ts";

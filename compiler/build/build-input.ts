@@ -34,6 +34,12 @@ export interface BuildInput {
    */
   explicit?: readonly (keyof BuildSettings)[];
   /**
+   * Record the measured latency in the file's metrics (the CLI does, unless SOURCE_DATE_EPOCH
+   * asks for a reproducible build: a timing differs run to run, so it would change the bytes).
+   * The report carries it either way.
+   */
+  latencyInFile?: boolean;
+  /**
    * Extra training examples (e.g. reviewers' decisions exported from the review queue): they are
    * never held out, so validation stays the base data's, and each is trained on `repeat` times.
    */

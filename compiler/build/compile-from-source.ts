@@ -11,6 +11,7 @@ import { rankRows, rowImportance } from "../compile/prune.ts";
 import { shouldFoldOutput } from "../compile/fold-output.ts";
 import { sectionSizes, writeModel } from "../compile/write-model.ts";
 import { evaluateModel, scoreTexts } from "../evaluate/evaluate.ts";
+import { measureLatency } from "../evaluate/measure-latency.ts";
 import { createDraft } from "../train/draft.ts";
 import { inverseDocumentFrequency } from "../train/encode.ts";
 import { huffmanTree, treePaths } from "../train/huffman.ts";
@@ -144,6 +145,8 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   const shipped = loadModel(writeModel(compiled.contents));
   const evaluation = validation.length > 0 ? evaluateModel(shipped, validation) : null;
   const compiledQuality = evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN };
+  const latencyPool = validationTexts.length > 0 ? validationTexts : (input.examples ?? []).map((e) => e.text);
+  const latency = latencyPool.length > 0 ? measureLatency(shipped, latencyPool) : null;
   compiled.contents.header.metrics = {
     validationExamples: validation.length,
     draft: roundQuality(draftQuality),
@@ -152,6 +155,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     compiled: roundQuality(compiledQuality),
     ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
     labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
+    ...(latency && input.latencyInFile ? { latency } : {}),
     // What the Worker's traffic counts will be compared with (population stability in the report).
     ...(validation.length > 0 ? { traffic: validationTraffic(shipped, validationTexts) } : {}),
   };
@@ -195,6 +199,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     policy: policyReport,
     leaks: job.leaks ?? null,
     sections: sectionSizes(bytes),
+    latency,
     warnings,
   };
   return { bytes, report };

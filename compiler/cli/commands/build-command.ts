@@ -53,6 +53,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
     settings,
     explicit,
     buildTime: buildTime(),
+    latencyInFile: process.env.SOURCE_DATE_EPOCH === undefined,
     dataSha256: await sha256OfFile(dataPath),
     dataName: basename(dataPath),
     onProgress: progress.onTrain,
@@ -237,12 +238,20 @@ function describeValidation(report: BuildReport): string[] {
   return lines;
 }
 
+/** One line: µs per classify call for the two validation texts, measured in this process. */
+export function describeLatency(latency: BuildReport["latency"]): string {
+  if (latency === null) return "latency: not measured (no texts)";
+  const part = (l: NonNullable<BuildReport["latency"]>["tokens20"]) => `${l.microseconds.toFixed(1)} µs for ${l.tokens} tokens`;
+  return `latency (classify, this machine, now): ${part(latency.tokens20)}, ${part(latency.tokens300)}`;
+}
+
 function describeBuild(out: string, report: BuildReport): string {
   const lines = [
     `wrote ${out}: ${report.bytes} bytes, ${report.head} head over ${report.labels.length} labels (${report.headReason})`,
     `trained on ${report.trainExamples} examples in ${report.trainSeconds.toFixed(2)} s (${(report.tokensPerSecond / 1e6).toFixed(2)}M tokens/s); validated on ${report.validationExamples}`,
     `feature rows: ${report.rows.kept} kept of ${report.rows.seen}`,
     `time: ${Object.entries(report.stageSeconds).map(([stage, seconds]) => `${stage} ${seconds.toFixed(2)} s`).join(", ")}`,
+    describeLatency(report.latency),
     "",
     formatTable(
       ["model", "accuracy", "macro-F1", "bytes"],

@@ -44,6 +44,7 @@ export async function inspectCommand(argv: string[]): Promise<number> {
         ["compiled (this file)", fixed(metrics.compiled?.accuracy ?? NaN), fixed(metrics.compiled?.macroF1 ?? NaN)],
       ],
     ),
+    describeRecordedLatency(meta.metrics.latency),
     "",
     "policy:",
     ...(meta.policy ? meta.policy.rules.map((rule) => `  ${rule.label}: ${describeRule(rule)}`) : ["  none: every text is allowed with its top label (the review floor of HTTP and classify still applies)"]),
@@ -63,4 +64,11 @@ export async function inspectCommand(argv: string[]): Promise<number> {
 function aligned(facts: readonly [string, string][]): string[] {
   const width = Math.max(0, ...facts.map(([name]) => name.length));
   return facts.map(([name, value]) => `  ${name.padEnd(width)}  ${value}`);
+}
+
+/** The latency the build measured, when it recorded one (reproducible builds leave it out). */
+function describeRecordedLatency(latency: unknown): string {
+  const entries = latency !== null && typeof latency === "object" ? Object.values(latency as Record<string, { tokens?: unknown; microseconds?: unknown }>) : [];
+  const parts = entries.filter((l) => typeof l?.microseconds === "number" && typeof l.tokens === "number").map((l) => `${(l.microseconds as number).toFixed(1)} µs for ${l.tokens as number} tokens`);
+  return parts.length > 0 ? `latency at build (classify, the build machine): ${parts.join(", ")}` : "latency at build: not recorded (a reproducible build leaves timings out)";
 }

@@ -34,6 +34,20 @@ describe("build", () => {
     expect(Buffer.compare(Buffer.from(first.bytes), Buffer.from(second.bytes))).toBe(0);
   });
 
+  it("reports a positive latency for a 20-token and a 300-token validation text, and leaves it out of the file unless asked", async () => {
+    // A measurement, not a speed assertion: only that it is there and makes sense.
+    const { bytes, report } = await build({ examples: subset, settings: quickSettings(), buildTime: BUILD_TIME });
+    expect(report.latency).not.toBeNull();
+    expect(report.latency?.tokens20.tokens).toBe(20);
+    expect(report.latency?.tokens300.tokens).toBe(300);
+    expect(report.latency?.tokens20.microseconds).toBeGreaterThan(0);
+    expect(report.latency?.tokens300.microseconds).toBeGreaterThan(0);
+    expect(loadModel(bytes).meta.metrics.latency).toBeUndefined();
+    const recorded = await build({ examples: subset, settings: quickSettings(), buildTime: BUILD_TIME, latencyInFile: true });
+    expect((recorded.report.latency?.tokens300.microseconds ?? 0) > 0).toBe(true);
+    expect(loadModel(recorded.bytes).meta.metrics.latency).toEqual(recorded.report.latency);
+  });
+
   it("writes different bytes for a different seed", async () => {
     const first = await build({ examples: subset, settings: quickSettings({ seed: 1 }), buildTime: BUILD_TIME });
     const other = await build({ examples: subset, settings: quickSettings({ seed: 2 }), buildTime: BUILD_TIME });
