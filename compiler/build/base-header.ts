@@ -18,6 +18,7 @@ export function featurizerSettingsOf(settings: BuildSettings): FeaturizerSetting
     hashBits: settings.hashBits,
     hashSeed: settings.hashSeed,
     maxTokens: settings.maxTokens,
+    unspacedScripts: settings.unspacedScripts,
   };
 }
 

@@ -8,6 +8,8 @@ import type { LeakFindings } from "../read/text-fingerprints.ts";
 import type { TrainingSource } from "../train/training-source.ts";
 import type { TrainProgress } from "../train/train-draft.ts";
 import type { BuildSettings } from "./build-settings.ts";
+import type { SearchReport } from "./search-settings.ts";
+import type { SplitReport } from "./split-examples.ts";
 
 export interface BuildInput {
   examples: readonly LabelledText[];
@@ -26,6 +28,11 @@ export interface BuildInput {
   /** Which data fields held the text and the label(s), and the separator of several labels in
    * one cell (recorded so eval, classify, compare and report read data the same way). */
   fields?: { text: string[]; label: string; labelSep?: string };
+  /**
+   * Settings the user chose (flags, config keys); the build's search changes only the others.
+   * Absent: every setting that differs from the table's default counts as chosen.
+   */
+  explicit?: readonly (keyof BuildSettings)[];
   /**
    * Record the measured latency in the file's metrics (the CLI does, unless SOURCE_DATE_EPOCH
    * asks for a reproducible build: a timing differs run to run, so it would change the bytes).
@@ -55,4 +62,8 @@ export interface SourceBuild {
   trainFingerprint?: Uint8Array;
   /** Seconds spent before this call (reading, splitting, encoding), for the report. */
   prepareSeconds?: number;
+  /** How the validation split was made. */
+  split?: SplitReport;
+  /** What the build's setting search compared and chose (null: no search). */
+  search?: SearchReport | null;
 }

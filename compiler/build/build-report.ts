@@ -5,6 +5,8 @@ import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { PolicyReport } from "../compile/choose-policy.ts";
 import type { LatencyReport } from "../evaluate/measure-latency.ts";
 import type { LeakFindings } from "../read/text-fingerprints.ts";
+import type { SearchReport } from "./search-settings.ts";
+import type { SplitReport } from "./split-examples.ts";
 
 export interface Quality {
   accuracy: number;
@@ -40,6 +42,15 @@ export interface BuildReport {
   draft: Quality & { bytes: number };
   compiled: Quality;
   validation: Quality & { microF1: number; logLoss: number; ece: number };
+  /**
+   * 95% Wilson interval of the validation accuracy (Wilson 1927). It treats validation rows as
+   * independent; rows of one group are not, so with groups the true uncertainty is wider.
+   */
+  validationInterval: { low: number; high: number } | null;
+  /** How the validation split kept groups and near-identical texts together. */
+  split: SplitReport | null;
+  /** What the build's setting search compared and chose (null: --search-time 0 or no validation). */
+  search: SearchReport | null;
   /** Temperature scaling on validation: what was kept, or why it was skipped; null without validation or with --no-calibrate. */
   calibration: CalibrationReport | null;
   policy: PolicyReport | null;

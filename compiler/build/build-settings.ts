@@ -29,6 +29,8 @@ export interface BuildSettings {
   /** Multiply the output layer into the rows when there are fewer outputs than dims. */
   foldOutput: boolean;
   maxTokens: number;
+  /** Letters of scripts written without spaces (Chinese, Japanese, Thai…) become one token each. */
+  unspacedScripts: boolean;
   /** Label → precision to reach on validation data (block/route threshold). */
   targetPrecision: Record<string, number>;
   /** Label → recall to reach on validation data. */
@@ -41,9 +43,15 @@ export interface BuildSettings {
   calibrate: boolean;
   /** Store a Bloom filter of the training texts so `eval` can warn about train/test overlap. */
   fingerprint: boolean;
+  /** "together": near-identical texts stay on one side of the validation split (default); "apart": only groups do. */
+  nearDuplicates: "together" | "apart";
+  /** Seconds the build may spend choosing settings on the validation split ("auto": scaled with the data; 0: no search). */
+  searchTime: number | "auto";
+  /** The build's search never picks settings whose classify time exceeds this many µs per text (0 = no limit). */
+  maxUs: number;
 }
 
-type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "actions" | "boolean";
+type Kind = "int" | "float" | "span" | "size" | "enum" | "map" | "actions" | "boolean" | "seconds";
 
 export interface SettingSpec<K extends keyof BuildSettings> {
   flag: string;
@@ -61,26 +69,27 @@ export interface SettingSpec<K extends keyof BuildSettings> {
 
 /** The table. Defaults were picked by measurement on the demo data and the SpamAssassin split (see README). */
 export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
-  dims: { flag: "--dims", kind: "int", min: 1, max: 512, default: 24, description: "width of the feature embeddings" },
+  dims: { flag: "--dims", kind: "int", min: 1, max: 512, default: 24, defaultText: "24; 32 above 16 labels, 48 above 64", description: "width of the feature embeddings (by default sized to the label count)" },
   wordSpan: { flag: "--word-span", kind: "int", min: 1, max: 4, default: 2, description: "longest word n-gram (1 = words only, 2 = words + pairs)" },
-  // Off by default: on the demo topics, the contact form and SpamAssassin, 3-4 character
-  // n-grams added at most 0.2 accuracy points for 3-4x the training and classify time
-  // (README, "Measured numbers"); typo-heavy data may still want them, and tune tries them.
-  charSpan: { flag: "--char-span", kind: "span", min: 0, max: 8, default: [0, 0], description: "character n-gram lengths inside words, A-B (0 = off)" },
+  // Off unless the build's search finds 1-4 better on validation (and worth its cost): on the
+  // demo topics, the contact form and SpamAssassin 3-4 character n-grams added at most 0.2
+  // points for 3-4x the classify time; on language identification they are most of the signal.
+  charSpan: { flag: "--char-span", kind: "span", min: 0, max: 8, default: [0, 0], defaultText: "chosen: 0 (off) or 1-4", description: "character n-gram lengths inside words, A-B (0 = off)" },
   hashBits: { flag: "--hash-bits", kind: "int", min: 10, max: 26, default: 20, description: "size of the hashed feature space, 2^N slots" },
   hashSeed: { flag: "--hash-seed", kind: "int", min: 0, max: 0xffffffff, default: 0, description: "seed of the feature hash" },
   minDocs: { flag: "--min-docs", kind: "int", min: 1, max: 1_000_000, default: 2, description: "ignore features seen in fewer than N training examples" },
-  // TF-IDF and 5 epochs by default: in 5-fold cross-validation on the training parts of the
-  // demo topics, the contact form and SpamAssassin they beat mean weighting and 10 epochs on
-  // all three (0.9671 vs 0.9619, 0.9684 vs 0.9670, 0.9840 vs 0.9811 accuracy) in half the
-  // training time; 10 epochs with TF-IDF scored 0.9630, 0.9674, 0.9852 (README, "Defaults").
-  weighting: { flag: "--weighting", kind: "enum", values: ["mean", "tfidf"], default: "tfidf", description: "how feature rows are combined: tfidf weighs each row by its inverse document frequency" },
+  // TF-IDF is where the search starts: in 5-fold cross-validation on the training parts of the
+  // demo topics, the contact form and SpamAssassin it beat mean weighting on all three (0.9671
+  // vs 0.9619, 0.9684 vs 0.9670, 0.9840 vs 0.9811 accuracy); the search still tries mean.
+  weighting: { flag: "--weighting", kind: "enum", values: ["mean", "tfidf"], default: "tfidf", defaultText: "chosen: tfidf or mean", description: "how feature rows are combined: tfidf weighs each row by its inverse document frequency" },
   head: { flag: "--head", kind: "enum", values: ["auto", "softmax", "sigmoid", "tree"], default: "auto", description: "output layer (auto: sigmoid for several labels per example, tree for large label sets, else softmax)" },
-  epochs: { flag: "--epochs", kind: "int", min: 1, max: 1000, default: 5, description: "passes over the training data" },
-  learningRate: { flag: "--learning-rate", kind: "float", min: 1e-6, max: 10, default: 0.5, description: "initial SGD learning rate (decays linearly to zero)" },
+  // The epochs and the rate below are used as they are only with --search-time 0; otherwise the
+  // search picks the epochs by early stopping and the rate from 0.25 to 2 (search-settings.ts).
+  epochs: { flag: "--epochs", kind: "int", min: 1, max: 1000, default: 5, defaultText: "chosen by early stopping on validation (5 with --search-time 0)", description: "passes over the training data" },
+  learningRate: { flag: "--learning-rate", kind: "float", min: 1e-6, max: 10, default: 0.5, defaultText: "chosen: 0.25 to 2, starting at 0.5", description: "initial SGD learning rate (decays linearly to zero)" },
   threads: { flag: "--threads", kind: "int", min: 1, max: 64, default: 1, description: "training threads (1 is deterministic)" },
   seed: { flag: "--seed", kind: "int", min: 0, max: 0xffffffff, default: 1, description: "seed for the split, shuffling and initialization" },
-  holdout: { flag: "--holdout", kind: "float", min: 0, max: 0.9, default: 0.1, description: "fraction held out for validation (stratified)" },
+  holdout: { flag: "--holdout", kind: "float", min: 0, max: 0.9, default: 0.1, description: "fraction held out for validation (stratified; rows of one --group-field group and near-identical texts stay together)" },
   // 1 MiB by default: far below every Worker limit, and on SpamAssassin pruning 5.6 MB down to
   // 1 MiB cost nothing measurable; 0 turns the budget off.
   maxBytes: { flag: "--max-bytes", kind: "size", min: 0, default: 1024 * 1024, description: "size budget of the compiled model (512k, 2m; 0 = none)" },
@@ -88,6 +97,9 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   precision: { flag: "--precision", kind: "enum", values: ["int8", "float32"], default: "int8", description: "storage of rows and output weights" },
   fineTuneEpochs: { flag: "--fine-tune-epochs", kind: "int", min: 0, max: 100, default: 2, description: "epochs retraining the output layer on the compiled rows" },
   foldOutput: { flag: "--fold-output", kind: "boolean", default: true, description: "store each row's contribution to every label's logit (the output layer multiplied in) when there are fewer labels than dims: smaller and faster (--no-fold-output keeps the layer)" },
+  // On by default: it changes nothing for text in spaced scripts, and without it a sentence of
+  // Chinese or Thai is one "word" the model has almost never seen.
+  unspacedScripts: { flag: "--unspaced-scripts", kind: "boolean", default: true, description: "split scripts written without spaces (Chinese, Japanese, Thai, Lao, Khmer, Myanmar) into one token per letter, so pairs of letters act as words (--no-unspaced-scripts keeps each run as one word)" },
   maxTokens: { flag: "--max-tokens", kind: "int", min: 1, max: 1 << 20, default: 2000, description: "tokens read per text; the rest is ignored and reported" },
   targetPrecision: { flag: "--target-precision", kind: "map", placeholder: "L=P", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },
   targetRecall: { flag: "--target-recall", kind: "map", placeholder: "L=R", default: {}, description: "label=R: threshold reaching recall R on validation" },
@@ -95,6 +107,9 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   reviewBelow: { flag: "--review-below", kind: "float", min: 0, max: 1, default: 0, description: "send texts whose top score is below this to review (0 = off)" },
   calibrate: { flag: "--calibrate", kind: "boolean", default: true, description: "fit temperature scaling on validation (--no-calibrate to skip)" },
   fingerprint: { flag: "--fingerprint", kind: "boolean", default: true, description: "store a Bloom filter (~1 byte per training text) so eval can warn about overlap with training data (--no-fingerprint leaves it out)" },
+  nearDuplicates: { flag: "--near-duplicates", kind: "enum", values: ["together", "apart"], default: "together", description: "together: texts that differ only in case, digits, punctuation or spacing stay on one side of the validation split, so validation is not scored on near-copies of training texts; apart: split them like any other rows" },
+  searchTime: { flag: "--search-time", kind: "seconds", min: 0, max: 86400, default: "auto", defaultText: "auto: 10 s + 8 s per million training tokens, at most 2m", placeholder: "TIME", description: "time the build may spend choosing epochs, learning rate, character n-grams and weighting on the validation split: seconds (30, 30s, 2m), auto (scaled with the data) or 0 (no search: the table's defaults)" },
+  maxUs: { flag: "--max-us", kind: "float", min: 0, max: 1e6, default: 0, description: "the build's search skips settings whose classify time (µs per validation text, measured on this machine) exceeds this (0 = no limit)" },
 };
 
 /** Settings with every default filled in. */
@@ -148,6 +163,12 @@ export function parseSetting<K extends keyof BuildSettings>(key: K, raw: unknown
       const high = (match as RegExpExecArray)[2] === undefined ? low : Number((match as RegExpExecArray)[2]);
       return checkSpan([low, high], spec.max ?? 8, fail) as BuildSettings[K];
     }
+    case "seconds": {
+      if (raw === "auto") return "auto" as BuildSettings[K];
+      const value = typeof raw === "number" ? raw : parseSeconds(String(raw));
+      if (value === null || (spec.min !== undefined && value < spec.min) || (spec.max !== undefined && value > spec.max)) fail(`auto or a time like 30, 30s, 2m (0 = off), at most ${spec.max} s`);
+      return value as BuildSettings[K];
+    }
     case "enum": {
       if (!spec.values?.includes(String(raw))) fail(`one of ${spec.values?.join(", ")}`);
       return String(raw) as BuildSettings[K];
@@ -192,6 +213,14 @@ function checkSpan(span: [number, number], max: number, fail: (expected: string)
 function checkFraction(value: unknown, fail: (expected: string) => never): number {
   if (typeof value !== "number" || !(value > 0 && value < 1)) fail("a fraction strictly between 0 and 1");
   return value as number;
+}
+
+/** "30" → 30, "30s" → 30, "2m" → 120, "1.5h" → 5400; null when malformed. */
+export function parseSeconds(text: string): number | null {
+  const match = /^\s*(\d+(?:\.\d+)?)\s*(s|m|h)?\s*$/i.exec(text);
+  if (!match) return null;
+  const unit = (match[2] ?? "s").toLowerCase();
+  return Number(match[1]) * (unit === "h" ? 3600 : unit === "m" ? 60 : 1);
 }
 
 /** "128k" → 131072, "2m" → 2097152, "4096" → 4096; null when malformed. */

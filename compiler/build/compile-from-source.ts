@@ -23,11 +23,40 @@ import { compileDraft } from "./compile-draft.ts";
 import { contentsOf } from "./draft-contents.ts";
 import { fitRowsToBudget, rowBytes } from "./fit-rows-to-budget.ts";
 import { verifyRoundTrip } from "./verify-round-trip.ts";
+import { explicitSettings } from "./explicit-settings.ts";
+import { checkWeights, TrainingDivergedError } from "../train/divergence.ts";
+import type { Draft } from "../train/draft.ts";
+import type { TrainResult } from "../train/train-draft.ts";
+import { wilsonInterval } from "../metrics/wilson-interval.ts";
+
+/** Halvings of a learning rate Sluice chose before the build gives up on a diverging run. */
+const MAX_RECOVERIES = 4;
+
+/** The divergence behind `error` (also when it crossed a thread boundary as a plain Error), else null. */
+function asDivergence(error: unknown, learningRate: number): TrainingDivergedError | null {
+  if (error instanceof TrainingDivergedError) return error;
+  const message = error instanceof Error ? error.message : String(error);
+  const match = /training diverged at epoch (\d+): (.*?); lower --learning-rate/.exec(message);
+  return match ? new TrainingDivergedError(Number(match[1]), learningRate, match[2]) : null;
+}
+
+/** Compiles; a weight too large for int8 storage is a training problem and is reported as one. */
+async function compileOrExplain<T>(compile: () => Promise<T>, learningRate: number): Promise<T> {
+  try {
+    return await compile();
+  } catch (error) {
+    if (error instanceof Error && /beyond what an int8 row scale code can hold/.test(error.message)) {
+      throw new TrainingDivergedError(0, learningRate, "the trained weights grew too large to store");
+    }
+    throw error;
+  }
+}
 
 /** Train the draft from a source, then compile, calibrate, choose the policy and write. */
 export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint8Array; report: BuildReport }> {
-  const { input, source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
-  const { settings } = input;
+  const { source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
+  let { input } = job;
+  let { settings } = input;
   const clock = stageClock(job.prepareSeconds ?? 0);
   const say = (message: string) => input.onMessage?.(message);
   const labelIndex = new Map(labels.map((label, i) => [label, i]));
@@ -35,22 +64,33 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   const rowWeights = settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null;
   const tree = head === "tree" ? huffmanTree(source.labelCounts) : null;
   const paths = tree ? treePaths(tree, labels.length) : null;
-  const random = createRandom(settings.seed);
-  const draft = createDraft({
-    head,
-    labels,
-    dims: settings.dims,
-    slots: vocabulary.slots,
-    documentFrequency: vocabulary.documentFrequency,
-    rowWeights,
-    tree,
-    random,
-    shared: settings.threads > 1,
-  });
   say(`training: ${source.count} examples, ${vocabulary.slots.length} feature rows, ${settings.epochs} epochs, ${settings.threads} thread(s)`);
-  const trainSettings = { epochs: settings.epochs, learningRate: settings.learningRate, seed: settings.seed };
   clock.lap("prepare");
-  const trained = await source.train(draft, trainSettings, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
+  // A run that diverges is retried at half the rate when the rate was Sluice's choice; a rate
+  // the user gave is theirs to change, so the build stops with what to do.
+  const rateIsExplicit = explicitSettings(input.settings, input.explicit).has("learningRate");
+  let learningRate = settings.learningRate;
+  let draft: Draft;
+  let trained: TrainResult;
+  for (let attempt = 0; ; attempt++) {
+    const random = createRandom(settings.seed);
+    draft = createDraft({ head, labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights, tree, random, shared: settings.threads > 1 });
+    try {
+      trained = await source.train(draft, { epochs: settings.epochs, learningRate, seed: settings.seed }, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
+      checkWeights([draft.rows, draft.outputs, draft.bias], settings.epochs, learningRate);
+      break;
+    } catch (error) {
+      const diverged = asDivergence(error, learningRate);
+      if (diverged === null) throw error;
+      if (rateIsExplicit || attempt >= MAX_RECOVERIES) throw diverged;
+      warnings.push(`${diverged.message.replace(/; lower --learning-rate.*$/, "")} at learning rate ${learningRate}; retrained at ${learningRate / 2}`);
+      learningRate /= 2;
+    }
+  }
+  if (learningRate !== settings.learningRate) {
+    settings = { ...settings, learningRate };
+    input = { ...input, settings };
+  }
   clock.lap("train");
   input.onStage?.("compile");
 
@@ -74,7 +114,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     if (fit === null) throw new Error(`no model fits in ${settings.maxBytes} bytes: even with zero feature rows the header and output layer take more; raise --max-bytes or lower --dims`);
     keep = fit;
   }
-  let compiled = await compile(keep);
+  let compiled = await compileOrExplain(() => compile(keep), learningRate);
   clock.lap("compile");
   input.onStage?.("calibrate");
 
@@ -152,6 +192,9 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     validation: evaluation
       ? { accuracy: evaluation.accuracy, macroF1: evaluation.macroF1, microF1: evaluation.microF1, logLoss: evaluation.logLoss, ece: evaluation.ece }
       : { accuracy: NaN, macroF1: NaN, microF1: NaN, logLoss: NaN, ece: NaN },
+    validationInterval: evaluation ? wilsonInterval(Math.round(evaluation.accuracy * validation.length), validation.length) : null,
+    split: job.split ?? null,
+    search: job.search ?? null,
     calibration,
     policy: policyReport,
     leaks: job.leaks ?? null,

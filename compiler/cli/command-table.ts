@@ -57,6 +57,7 @@ const DATA: OptionGroup = {
     "--text-field": { value: "a[,b]", default: "text, or the model's", description: "field(s) holding the text, comma-separated, joined in order" },
     "--label-field": { value: "f", default: "label, or the model's", description: "field holding the label(s)" },
     "--label-sep": { value: "s", default: "none, or the model's", description: "separator of several labels in one CSV/TSV cell (JSONL may use an array)" },
+    "--group-field": { value: "f", default: "none", description: "field naming each row's origin (a document, a thread, a source): rows of one group stay on one side of build's validation split and of tune's folds" },
     "--format": { value: "csv|tsv|jsonl", values: ["csv", "tsv", "jsonl"], default: "from the extension", description: "how the data file is written" },
     "--skip-bad": { description: "skip bad rows, counting them and the lines they spanned, instead of stopping at the first" },
   },
@@ -72,7 +73,7 @@ function json(prints: string): OptionSpec {
 
 /** The flag spelling of a build setting, as shown in help (`--[no-]calibrate` for an on-by-default switch). */
 function settingOption(spec: SettingSpec<keyof BuildSettings>): OptionSpec {
-  const placeholder: Record<string, string> = { int: "N", float: "X", span: "A-B", size: "SIZE", map: "L=X", actions: "L=ACTION" };
+  const placeholder: Record<string, string> = { int: "N", float: "X", span: "A-B", size: "SIZE", map: "L=X", actions: "L=ACTION", seconds: "TIME" };
   if (spec.kind === "boolean") return { negatable: spec.default === true, description: spec.description, default: spec.default === true ? "on" : "off" };
   return {
     value: spec.kind === "enum" ? (spec.values ?? []).join("|") : (spec.placeholder ?? placeholder[spec.kind] ?? "X"),

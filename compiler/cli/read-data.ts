@@ -31,6 +31,7 @@ export function readOptionsFrom(args: ParsedArgs, defaults: FieldDefaults, requi
     textFields: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()).filter(Boolean) : defaults.textFields,
     labelField: valueOf(args, "--label-field") ?? defaults.labelField,
     labelSep: valueOf(args, "--label-sep") ?? defaults.labelSep,
+    groupField: valueOf(args, "--group-field"),
     format: (format as DataFormat | undefined) ?? defaults.format,
     requireLabels,
     skipBad: args.switches.get("--skip-bad") === true,

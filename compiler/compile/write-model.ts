@@ -200,6 +200,7 @@ function orderedHeader(header: ModelHeader): Record<string, unknown> {
       hashBits: header.featurizer.hashBits,
       hashSeed: header.featurizer.hashSeed,
       maxTokens: header.featurizer.maxTokens,
+      unspacedScripts: header.featurizer.unspacedScripts === true,
     },
     weighting: header.weighting,
     precision: header.precision,

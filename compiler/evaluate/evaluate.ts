@@ -8,6 +8,8 @@ import { computeClassificationMetrics, expectedCalibrationError, logLoss, type L
 export interface LabelledText {
   text: string;
   labels: string[];
+  /** Rows of one origin (a document, a thread, a source) share a group; splits keep a group together. */
+  group?: string;
 }
 
 /** Scores of many texts: row i of `scores` (labelCount wide) belongs to text i. */

@@ -32,6 +32,7 @@ export function finishRow(
   line: number,
   textParts: readonly string[],
   labels: string[] | null,
+  group?: string,
 ): Example | null {
   const { report, file } = context;
   const text = textParts.join("\n");
@@ -50,5 +51,5 @@ export function finishRow(
     labels = [];
   }
   report.examples++;
-  return { text, labels, line };
+  return group === undefined ? { text, labels, line } : { text, labels, line, group };
 }

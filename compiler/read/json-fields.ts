@@ -49,6 +49,22 @@ export function readJsonTextParts(record: Record<string, unknown>, context: Read
 }
 
 /**
+ * The group of one record (a string or a number), or undefined when no group field was asked
+ * for; a missing or other-typed value throws a row DataError.
+ * @example readJsonGroup({ doc: "a-12" }, context, 3) // "a-12" for groupField doc
+ */
+export function readJsonGroup(record: Record<string, unknown>, context: ReadContext, line: number): string | undefined {
+  const field = context.groupField;
+  if (field === null) return undefined;
+  const where = { file: context.file, line, field };
+  if (!Object.hasOwn(record, field)) throw new DataError("missing-field", where, "missing; expected the row's group (a string or a number)");
+  const value = record[field];
+  if (typeof value === "string") return value;
+  if (typeof value === "number") return String(value);
+  throw new DataError("bad-field-type", where, `expected a string or a number naming the row's group, found ${describeJsonType(value)}`);
+}
+
+/**
  * The labels of one record: null when the label field is absent or null; a string (split
  * on labelSep when given), a number, or an array of strings/numbers otherwise.
  * @example readJsonLabels({ label: ["billing", "refund"] }, context, 2) // ["billing", "refund"]

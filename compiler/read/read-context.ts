@@ -12,6 +12,8 @@ export interface ReadContext {
   format: DataFormat;
   textFields: readonly string[];
   labelField: string;
+  /** null when no group field was asked for. */
+  groupField: string | null;
   labelSep: string | null;
   requireLabels: boolean;
   skipBad: boolean;
@@ -38,6 +40,8 @@ export function createReadContext(file: string, options: ReadOptions, report: Re
   }
   const labelField = options.labelField ?? "label";
   if (!isNonEmptyString(labelField)) throw badOption(file, "labelField must be a non-empty string");
+  const groupField = options.groupField ?? null;
+  if (groupField !== null && !isNonEmptyString(groupField)) throw badOption(file, "groupField must be a non-empty string when given");
   const labelSep = options.labelSep ?? null;
   if (labelSep !== null && !isNonEmptyString(labelSep)) {
     throw badOption(file, "labelSep must be a non-empty string when given");
@@ -47,6 +51,7 @@ export function createReadContext(file: string, options: ReadOptions, report: Re
     format: detectFormat(file, options.format),
     textFields: [...textFields],
     labelField,
+    groupField,
     labelSep,
     requireLabels: options.requireLabels ?? true,
     skipBad: options.skipBad ?? false,

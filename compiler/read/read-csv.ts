@@ -138,9 +138,11 @@ export async function* readCsv(source: Readable, context: ReadContext): AsyncGen
   source.pipe(parser);
 
   const wanted = context.requireLabels ? [...context.textFields, context.labelField] : [...context.textFields];
+  if (context.groupField !== null) wanted.push(context.groupField);
   let header: NumberedRecord | null = null;
   let textIndexes: number[] = [];
   let labelIndex = -1;
+  let groupIndex = -1;
   try {
     for await (const record of parser as AsyncIterable<NumberedRecord>) {
       if (header === null) {
@@ -148,6 +150,7 @@ export async function* readCsv(source: Readable, context: ReadContext): AsyncGen
         const positions = locateFields(header, wanted, context);
         textIndexes = context.textFields.map((field) => positions.get(field) as number);
         labelIndex = positions.get(context.labelField) ?? header.fields.map((name) => name.trim()).indexOf(context.labelField);
+        if (context.groupField !== null) groupIndex = positions.get(context.groupField) as number;
         continue;
       }
       report.rows++;
@@ -159,7 +162,7 @@ export async function* readCsv(source: Readable, context: ReadContext): AsyncGen
         continue;
       }
       const labels = labelIndex === -1 ? null : splitLabelCell(fields[labelIndex], context.labelSep);
-      const example = finishRow(context, line, textIndexes.map((index) => fields[index]), labels);
+      const example = finishRow(context, line, textIndexes.map((index) => fields[index]), labels, groupIndex === -1 ? undefined : fields[groupIndex]);
       if (example !== null) yield example;
     }
   } finally {

@@ -6,7 +6,7 @@ import { createInterface } from "node:readline";
 import type { Readable } from "node:stream";
 import { DataError } from "./data-error.ts";
 import { finishRow, rejectBadRow } from "./finish-row.ts";
-import { describeJsonType, isJsonObject, readJsonLabels, readJsonTextParts } from "./json-fields.ts";
+import { describeJsonType, isJsonObject, readJsonGroup, readJsonLabels, readJsonTextParts } from "./json-fields.ts";
 import type { ReadContext } from "./read-context.ts";
 import type { Example } from "./read-types.ts";
 
@@ -49,15 +49,17 @@ export async function* readJsonl(source: Readable, context: ReadContext): AsyncG
       }
       let textParts: string[];
       let labels: string[] | null;
+      let group: string | undefined;
       try {
         textParts = readJsonTextParts(value, context, line);
         labels = readJsonLabels(value, context, line);
+        group = readJsonGroup(value, context, line);
       } catch (error) {
         if (!(error instanceof DataError)) throw error;
         rejectBadRow(context, error);
         continue;
       }
-      const example = finishRow(context, line, textParts, labels);
+      const example = finishRow(context, line, textParts, labels, group);
       if (example !== null) yield example;
     }
   } finally {

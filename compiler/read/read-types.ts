@@ -11,6 +11,8 @@ export interface Example {
   labels: string[];
   /** 1-based line of the file where the record starts. */
   line: number;
+  /** The value of the group field (rows of one origin), when one was asked for. */
+  group?: string;
 }
 
 /** How to read a data file; every key is optional. */
@@ -21,6 +23,8 @@ export interface ReadOptions {
   textFields?: string[];
   /** Field that holds the label(s). Default "label". */
   labelField?: string;
+  /** Field naming each row's origin (a document, a thread, a source): rows of one group stay on one side of a split. */
+  groupField?: string;
   /** Splits one label cell (or JSONL label string) into several labels. */
   labelSep?: string;
   /** Default true. When false the label field may be absent and examples may have no labels. */

@@ -3,6 +3,7 @@
 
 import type { Draft } from "./draft.ts";
 import type { EncodedExamples } from "./encode.ts";
+import { checkEpochLoss } from "./divergence.ts";
 import { createRandom, shuffleInPlace, type RandomSource } from "./random.ts";
 import { computeHidden, createStepScratch, sigmoidOutputStep, sigmoidStep, softmaxOutputStep, softmaxStep, treeOutputStep, treeStep, type TreePaths } from "./steps.ts";
 
@@ -28,6 +29,8 @@ export interface TrainResult {
   tokensPerSecond: number;
   /** Mean loss of the last epoch. */
   finalLoss: number;
+  /** Epochs actually run (fewer than asked when `onEpoch` stopped early). */
+  epochs?: number;
 }
 
 export interface TrainOptions {
@@ -42,6 +45,11 @@ export interface TrainOptions {
   subset?: Int32Array;
   /** Called every 256 steps (threads merge their output layers here). */
   onSync?: () => void;
+  /**
+   * Called after each epoch with its number (1-based); return true to stop training early
+   * (the build's early stopping measures the validation split here).
+   */
+  onEpoch?: (epoch: number, meanLoss: number) => boolean | void;
 }
 
 const REPORT_EVERY = 4096;
@@ -70,6 +78,8 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
   // epoch, as the on-disk path runs per shard, gains nothing from it.)
   const frozenHidden = trainRows || settings.epochs < 2 ? null : hiddenVectors(draft, data, order);
   const dims = draft.dims;
+  let previousLoss = NaN;
+  let epochsRun = 0;
   for (let epoch = 0; epoch < settings.epochs; epoch++) {
     shuffleInPlace(order, random);
     epochLoss = 0;
@@ -113,13 +123,20 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
         reportCount = 0;
       }
     }
+    epochsRun = epoch + 1;
+    // A loss that is not finite or grows means the rate is too large: stop before it spreads.
+    const meanLoss = count > 0 ? epochLoss / count : 0;
+    checkEpochLoss(epoch + 1, meanLoss, previousLoss, settings.learningRate);
+    previousLoss = meanLoss;
+    if (options.onEpoch?.(epoch + 1, meanLoss) === true) break;
   }
   options.onSync?.();
   const seconds = (performance.now() - started) / 1000;
   return {
     seconds,
-    tokensPerSecond: (settings.epochs * count * tokensPerExample) / Math.max(seconds, 1e-9),
+    tokensPerSecond: (epochsRun * count * tokensPerExample) / Math.max(seconds, 1e-9),
     finalLoss: count > 0 ? epochLoss / count : 0,
+    epochs: epochsRun,
   };
 }
 

@@ -11,7 +11,7 @@ import { build } from "../build/build.ts";
 import type { BuildSettings } from "../build/build-settings.ts";
 import type { LabelledText } from "../evaluate/evaluate.ts";
 import { createRandom } from "../train/random.ts";
-import { stratifiedSplit } from "../train/split.ts";
+import { findClusters, groupedFolds, groupedSplit } from "../train/group-split.ts";
 import { microsecondsPerDoc, scoreModel, type TuneMetric } from "./objective.ts";
 import { baselineSettings, sampleSettings, sizeFloor } from "./search-space.ts";
 import { defaultTuneSeconds } from "./tune-defaults.ts";
@@ -96,7 +96,7 @@ export async function tune(options: TuneOptions): Promise<TuneResult> {
       const { bytes: modelBytes } = await build({
         examples: train,
         validation: split.validation,
-        settings: { ...settings, holdout: 0, threads: 1, calibrate: false },
+        settings: { ...settings, holdout: 0, threads: 1, calibrate: false, searchTime: 0 },
         buildTime: "1970-01-01T00:00:00.000Z",
       });
       const model = loadModel(modelBytes);
@@ -165,27 +165,14 @@ function drawSettings(base: BuildSettings, labelCount: number, count: number, ra
 }
 
 function makeSplits(examples: readonly LabelledText[], firstLabel: number[], folds: number, seed: number) {
+  // Rows of one group (the data's group field) and near-identical texts stay on one side of
+  // the holdout and in one fold, so a trial is never scored on its training texts' twins.
+  const clusters = findClusters(examples);
   if (folds === 1) {
-    const { train, validation } = stratifiedSplit(firstLabel, 0.2, seed);
+    const { train, validation } = groupedSplit(firstLabel, clusters, 0.2, seed);
     return [{ train: Array.from(train, (i) => examples[i]), validation: Array.from(validation, (i) => examples[i]) }];
   }
-  // Stratified folds: deal each label's shuffled examples round-robin into the folds.
-  const assignment = new Int32Array(examples.length);
-  const byLabel = new Map<number, number[]>();
-  const random = createRandom(seed ^ 0x51f1);
-  for (let i = 0; i < examples.length; i++) {
-    const group = byLabel.get(firstLabel[i]);
-    if (group) group.push(i);
-    else byLabel.set(firstLabel[i], [i]);
-  }
-  for (const label of [...byLabel.keys()].sort((a, b) => a - b)) {
-    const group = byLabel.get(label) as number[];
-    for (let i = group.length - 1; i > 0; i--) {
-      const j = Math.floor(random.next() * (i + 1));
-      [group[i], group[j]] = [group[j], group[i]];
-    }
-    group.forEach((example, position) => (assignment[example] = position % folds));
-  }
+  const assignment = groupedFolds(firstLabel, clusters, folds, seed);
   return Array.from({ length: folds }, (_, fold) => ({
     train: examples.filter((_, i) => assignment[i] !== fold),
     validation: examples.filter((_, i) => assignment[i] === fold),

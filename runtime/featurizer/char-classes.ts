@@ -84,3 +84,20 @@ export function classOfAstral(codePoint: number): number {
   if (astralCache.size < 4096) astralCache.set(codePoint, result);
   return result;
 }
+
+// Scripts written without spaces between words (Chinese, Japanese kana, Thai, Lao, Khmer,
+// Myanmar): a whole sentence would be one "word". With `unspacedScripts` on, each of their
+// letters is a token of its own, so word pairs become character pairs (the usual treatment of
+// such text when no word segmenter is at hand; common practice, no source).
+const UNSPACED = /^[\p{Script=Han}\p{Script=Hiragana}\p{Script=Katakana}\p{Script=Thai}\p{Script=Lao}\p{Script=Khmer}\p{Script=Myanmar}]$/u;
+const unspaced = new Uint8Array(65536).fill(UNKNOWN);
+for (let code = 0; code < 0x0e00; code++) unspaced[code] = 0; // nothing below Thai (U+0E00) is unspaced
+
+/** Whether a letter (class LETTER) belongs to a script written without spaces. */
+export function isUnspacedLetter(code: number): boolean {
+  const cached = unspaced[code];
+  if (cached !== UNKNOWN) return cached === 1;
+  const computed = UNSPACED.test(String.fromCharCode(code)) ? 1 : 0;
+  unspaced[code] = computed;
+  return computed === 1;
+}

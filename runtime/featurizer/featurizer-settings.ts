@@ -16,4 +16,9 @@ export interface FeaturizerSettings {
   hashSeed: number;
   /** Tokens beyond this count are ignored, and the caller is told. */
   maxTokens: number;
+  /**
+   * Each letter of a script written without spaces (Han, kana, Thai, Lao, Khmer, Myanmar) is a
+   * token of its own (format version 3; absent in older files, where such runs stay one word).
+   */
+  unspacedScripts?: boolean;
 }

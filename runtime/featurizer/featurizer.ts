@@ -42,7 +42,7 @@ export class Featurizer {
     this.charSeed = seeds.char;
     this.ngramSeed = seeds.ngram;
     this.anyUrlHash = murmur3String("[url]", seeds.shape);
-    this.tokens = new Tokenizer(seeds, settings.maxTokens);
+    this.tokens = new Tokenizer(seeds, settings.maxTokens, settings.unspacedScripts === true);
   }
 
   /** Off only in tests, to check that the fast path reads exactly what the general reader reads. */

@@ -18,6 +18,7 @@ import {
   SPACE,
   classOf,
   classOfAstral,
+  isUnspacedLetter,
 } from "./char-classes.ts";
 import { chunkEnd, isEmailAddress, isOpeningBracket, lowerAscii, startsWithAscii, trimTrailingPunctuation, urlHostOffset } from "./chunk-shapes.ts";
 import type { FeatureSeeds } from "./feature-seeds.ts";
@@ -49,8 +50,12 @@ export class Tokenizer {
   /** Whether readWord must keep the word's characters (for character n-grams or names). */
   private keepWordChars = false;
 
-  constructor(seeds: FeatureSeeds, maxTokens: number) {
+  /** Letters of scripts without spaces become one token each (featurizer setting unspacedScripts). */
+  private readonly splitUnspaced: boolean;
+
+  constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false) {
     this.maxTokens = maxTokens;
+    this.splitUnspaced = splitUnspaced;
     this.wordSeed = seeds.word;
     this.hostSeed = seeds.host;
     this.numberHashes = Uint32Array.from(NUMBER_NAMES, (name) => murmur3String(name, seeds.shape));
@@ -287,6 +292,8 @@ export class Tokenizer {
     let digits = 0;
     let i = start;
     let previousClass = -1;
+    const splitUnspaced = this.splitUnspaced;
+    let single = false;
     // MurmurHash3 of the word's UTF-8 bytes, computed as the characters are read.
     let h = this.wordSeed | 0;
     let pending = 0;
@@ -296,6 +303,10 @@ export class Tokenizer {
       const cls = classOf(code);
       let kept: number;
       if (cls === LETTER) {
+        if (splitUnspaced && code >= 0x0e00 && isUnspacedLetter(code)) {
+          if (letters + digits > 0) break; // the word read so far ends before it
+          single = true; // this letter is a token of its own
+        }
         kept = code >= 0x41 && code <= 0x5a ? code + 32 : code;
         letters++;
       } else if (cls === DIGIT) {
@@ -337,6 +348,7 @@ export class Tokenizer {
       }
       previousClass = cls;
       i++;
+      if (single) break;
     }
     this.wordCharTotal = total;
     if (letters === 0) {

@@ -8,10 +8,12 @@ export const MAGIC = new Uint8Array([0x89, 0x53, 0x4c, 0x55, 0x49, 0x43, 0x45, 0
  * header's `rowSpace` (rows may hold each feature's contribution to every logit, with the
  * output layer multiplied in at compile time; version 1 files always hold hidden-space rows)
  * and stores int8 files' per-row scales as one-byte codes and TF-IDF weights as u16 steps.
+ * Version 3 added the featurizer setting `unspacedScripts` (letters of scripts written without
+ * spaces become one token each); older files lack it and featurize exactly as they always did.
  */
-export const FORMAT_VERSION = 2;
+export const FORMAT_VERSION = 3;
 /** Versions the loader accepts. */
-export const SUPPORTED_VERSIONS: readonly number[] = [1, 2];
+export const SUPPORTED_VERSIONS: readonly number[] = [1, 2, 3];
 
 // Fixed prelude: magic(8) | u16 version | u16 flags | u32 header length | header bytes.
 export const PRELUDE_BYTES = 16;

@@ -97,6 +97,8 @@ export function validateHeader(value: unknown, offset: number, version: number):
   checkInteger(f.hashBits, 4, 30) || fail("featurizer.hashBits", "an integer from 4 to 30");
   checkInteger(f.hashSeed, 0, 0xffffffff) || fail("featurizer.hashSeed", "an unsigned 32-bit integer");
   checkInteger(f.maxTokens, 1, 1 << 24) || fail("featurizer.maxTokens", "a positive integer");
+  if (version >= 3) typeof f.unspacedScripts === "boolean" || fail("featurizer.unspacedScripts", "true or false");
+  else if (f.unspacedScripts !== undefined) fail("featurizer.unspacedScripts", `absent in a version ${version} file`);
   const weighting = header.weighting;
   if (weighting !== "mean" && weighting !== "tfidf") fail("weighting", '"mean" or "tfidf"');
   const precision = header.precision;
@@ -155,6 +157,7 @@ export function validateHeader(value: unknown, offset: number, version: number):
       hashBits: f.hashBits as number,
       hashSeed: f.hashSeed as number,
       maxTokens: f.maxTokens as number,
+      ...(version >= 3 ? { unspacedScripts: f.unspacedScripts as boolean } : {}),
     },
     weighting: weighting as Weighting,
     precision: precision as Precision,

@@ -12,8 +12,8 @@ import { readExamples } from "../../compiler/read/index.ts";
 const SUPPORT_TOPICS = "demo-data/support-topics.csv";
 const SAMPLES = "demo-data/samples.txt";
 const SUPPORT_FIELDS = ["--text-field", "subject,body", "--label-field", "topic"];
-const SMALL = ["--epochs", "2", "--hash-bits", "16"];
-const TINY = ["--epochs", "2", "--hash-bits", "12"];
+const SMALL = ["--epochs", "2", "--hash-bits", "16", "--search-time", "0"];
+const TINY = ["--epochs", "2", "--hash-bits", "12", "--search-time", "0"];
 
 
 

@@ -42,8 +42,8 @@ beforeAll(async () => {
   policyModel = join(directory, "policy.sluice");
   sigmoidModel = join(directory, "inbox.sluice");
   const builds = await Promise.all([
-    sluice(["build", contact, "--text-field", "message", "--epochs", "4", "--hash-bits", "16", "--target-precision", "spam=0.95", "--target-recall", "abusive=0.9", "--review-below", "0.6", "--out", policyModel, "--quiet", "--force"]),
-    sluice(["build", inbox, "--head", "sigmoid", "--min-docs", "1", "--epochs", "20", "--hash-bits", "14", "--no-fingerprint", "--out", sigmoidModel, "--quiet", "--force"]),
+    sluice(["build", contact, "--text-field", "message", "--epochs", "4", "--hash-bits", "16", "--target-precision", "spam=0.95", "--target-recall", "abusive=0.9", "--review-below", "0.6", "--search-time", "0", "--out", policyModel, "--quiet", "--force"]),
+    sluice(["build", inbox, "--head", "sigmoid", "--min-docs", "1", "--epochs", "20", "--hash-bits", "14", "--no-fingerprint", "--search-time", "0", "--near-duplicates", "apart", "--out", sigmoidModel, "--quiet", "--force"]),
   ]);
   for (const run of builds) if (run.code !== 0) throw new Error(`build failed: ${run.stderr}`);
 });

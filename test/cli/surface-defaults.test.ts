@@ -23,7 +23,7 @@ beforeAll(async () => {
   directory = await mkdtemp(join(tmpdir(), "sluice-surfaces-"));
   modelPath = join(directory, "plain.sluice");
   // No policy: the review floor is the shared default, not the model's.
-  const build = await sluice(["build", "demo-data/contact-form.jsonl", "--text-field", "message", "--epochs", "3", "--hash-bits", "16", "--out", modelPath, "--quiet", "--force"]);
+  const build = await sluice(["build", "demo-data/contact-form.jsonl", "--text-field", "message", "--epochs", "3", "--hash-bits", "16", "--search-time", "0", "--out", modelPath, "--quiet", "--force"]);
   if (build.code !== 0) throw new Error(build.stderr);
   model = loadModel(readFileSync(modelPath));
   app = createApp(model, resolveAppConfig());

@@ -11,7 +11,7 @@ import { readExamples } from "../../compiler/read/index.ts";
 describe("the tree head", () => {
   it("should learn 1,000 synthetic labels far above chance", async () => {
     const examples = syntheticLabelData(1000, 30000, 11);
-    const settings = { ...defaultBuildSettings(), head: "tree" as const, dims: 16, charSpan: [0, 0] as [number, number], epochs: 5, hashBits: 18, calibrate: false, fineTuneEpochs: 1 };
+    const settings = { ...defaultBuildSettings(), head: "tree" as const, dims: 16, charSpan: [0, 0] as [number, number], epochs: 5, hashBits: 18, calibrate: false, fineTuneEpochs: 1, searchTime: 0 };
     const { bytes, report } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z" });
     console.log(`tree head, 1000 labels: validation accuracy ${report.compiled.accuracy.toFixed(3)}, ${report.trainSeconds.toFixed(2)} s training`);
     // Chance is 1/1000 (or ~0.13 by always guessing the most frequent Zipf label); every
@@ -27,7 +27,7 @@ describe("the tree head", () => {
 
   it("should be chosen by --head auto above the label threshold", async () => {
     const examples = syntheticLabelData(100, 3000, 3);
-    const settings = { ...defaultBuildSettings(), dims: 8, charSpan: [0, 0] as [number, number], epochs: 2, hashBits: 16 };
+    const settings = { ...defaultBuildSettings(), dims: 8, charSpan: [0, 0] as [number, number], epochs: 2, hashBits: 16, searchTime: 0 };
     const { report } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z" });
     expect(report.head).toBe("tree");
     expect(report.headReason).toMatch(/100 labels/);
@@ -38,7 +38,7 @@ describe("training on several threads", () => {
   it("should reach the single-thread accuracy within two points on the demo topics", async () => {
     const examples = [];
     for await (const e of readExamples("demo-data/support-topics.csv", { textFields: ["subject", "body"], labelField: "topic" })) examples.push(e);
-    const base = { ...defaultBuildSettings(), charSpan: [0, 0] as [number, number], dims: 16, epochs: 5 };
+    const base = { ...defaultBuildSettings(), charSpan: [0, 0] as [number, number], dims: 16, epochs: 5, searchTime: 0 };
     const one = await build({ examples, settings: { ...base, threads: 1 }, buildTime: "2026-01-01T00:00:00.000Z" });
     const two = await build({ examples, settings: { ...base, threads: 2 }, buildTime: "2026-01-01T00:00:00.000Z" });
     console.log(`accuracy: 1 thread ${one.report.compiled.accuracy.toFixed(3)}, 2 threads ${two.report.compiled.accuracy.toFixed(3)}`);

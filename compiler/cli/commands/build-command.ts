@@ -14,6 +14,7 @@ import { parseArgs, UsageError, valueOf, type ParsedArgs } from "../parse-args.t
 import type { Example } from "../../read/index.ts";
 import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256OfFile, type FieldDefaults } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
+import { describeChoice } from "../../build/search-settings.ts";
 import { createReadReport } from "../../read/index.ts";
 import { checkInputFile, checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
@@ -41,7 +42,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
   checkInputFile(validationPath, "validation file");
   checkInputFile(valueOf(args, "--config"), "config file");
   checkOutputPath(out, { inputs: [dataPath, validationPath, valueOf(args, "--config")], force });
-  const { settings, read } = settingsFromArgs(args);
+  const { settings, read, explicit } = settingsFromArgs(args);
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
   const validation = validationPath ? await readWithProgress(validationPath, args, fields, quiet, progress) : undefined;
@@ -50,6 +51,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
     validation,
     ...(alsoTrain !== undefined ? { alsoTrain } : {}),
     settings,
+    explicit,
     buildTime: buildTime(),
     latencyInFile: process.env.SOURCE_DATE_EPOCH === undefined,
     dataSha256: await sha256OfFile(dataPath),
@@ -128,25 +130,30 @@ async function readWithProgress(path: string, args: ReturnType<typeof parseArgs>
 const READ_DEFAULTS: FieldDefaults = { textFields: ["text"], labelField: "label" };
 
 /** Build settings and reading settings from --config, then flags on top of the build settings. */
-function settingsFromArgs(args: ReturnType<typeof parseArgs>): { settings: BuildSettings; read: FieldDefaults } {
+function settingsFromArgs(args: ReturnType<typeof parseArgs>): { settings: BuildSettings; read: FieldDefaults; explicit: (keyof BuildSettings)[] } {
   const configPath = valueOf(args, "--config");
   const config = configPath ? readConfig(configPath) : { build: {}, read: READ_DEFAULTS };
   const settings = resolveBuildSettings(config.build, configPath ?? "settings") as unknown as Record<string, unknown>;
+  const explicit = new Set(Object.keys(config.build) as (keyof BuildSettings)[]);
   for (const [key, spec] of Object.entries(BUILD_SETTINGS)) {
     if (spec.kind === "boolean") {
       const value = args.switches.get(spec.flag);
-      if (value !== undefined) settings[key] = value;
+      if (value !== undefined) {
+        settings[key] = value;
+        explicit.add(key as keyof BuildSettings);
+      }
       continue;
     }
     const values = args.values.get(spec.flag);
     if (!values) continue;
+    explicit.add(key as keyof BuildSettings);
     if (spec.kind === "map" || spec.kind === "actions") {
       const merged: Record<string, unknown> = {};
       for (const value of values) Object.assign(merged, parseSetting(key as "targetPrecision", value, spec.flag));
       settings[key] = merged;
     } else settings[key] = parseSetting(key as keyof BuildSettings, values[values.length - 1], spec.flag);
   }
-  return { settings: settings as unknown as BuildSettings, read: config.read };
+  return { settings: settings as unknown as BuildSettings, read: config.read, explicit: [...explicit] };
 }
 
 /**
@@ -207,6 +214,30 @@ function buildTime(): string {
   return new Date().toISOString();
 }
 
+/** The validation interval, how the split was made, and what the search compared. */
+function describeValidation(report: BuildReport): string[] {
+  const lines: string[] = [];
+  if (report.validationInterval) {
+    lines.push("", `validation accuracy ${fixed(report.validation.accuracy)} (95% interval ${fixed(report.validationInterval.low)}–${fixed(report.validationInterval.high)}, ${report.validationExamples} texts), macro-F1 ${fixed(report.validation.macroF1)}`);
+  }
+  const split = report.split;
+  if (split && split.kind === "holdout" && split.clusteredRows > 0) {
+    lines.push(`split: ${split.clusteredRows} rows in ${split.grouped ? `groups (${split.groups} groups)` : "clusters"}${split.nearDuplicateJoins > 0 ? `, ${split.nearDuplicateJoins} near-identical texts joined` : ""} kept on one side`);
+  }
+  const search = report.search;
+  if (search) {
+    lines.push("", `settings search (${search.seconds.toFixed(1)} s of ${search.budgetSeconds.toFixed(0)} s${search.explicit.length > 0 ? `; fixed by you: ${search.explicit.join(", ")}` : ""}):`);
+    lines.push(
+      formatTable(
+        ["candidate", "accuracy", "macro-F1", "epochs", "µs/text", "verdict"],
+        search.candidates.map((c) => [c.name, fixed(c.accuracy), fixed(c.macroF1), c.epochs, c.microseconds.toFixed(1), c.verdict]),
+      ),
+    );
+    lines.push(`chosen: ${describeChoice(search)}`);
+  }
+  return lines;
+}
+
 /** One line: µs per classify call for the two validation texts, measured in this process. */
 export function describeLatency(latency: BuildReport["latency"]): string {
   if (latency === null) return "latency: not measured (no texts)";
@@ -229,6 +260,7 @@ function describeBuild(out: string, report: BuildReport): string {
         ["compiled (shipped)", fixed(report.compiled.accuracy), fixed(report.compiled.macroF1), report.bytes],
       ],
     ),
+    ...describeValidation(report),
     "",
     `sections: ${Object.entries(report.sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
   ];

@@ -18,7 +18,7 @@ let subset: Example[] = [];
 
 /** Settings made smaller where it does not change what a test checks (speed only). */
 function quickSettings(overrides: Partial<BuildSettings> = {}): BuildSettings {
-  return { ...defaultBuildSettings(), epochs: 2, hashBits: 16, ...overrides };
+  return { ...defaultBuildSettings(), epochs: 2, hashBits: 16, searchTime: 0, ...overrides };
 }
 
 beforeAll(async () => {

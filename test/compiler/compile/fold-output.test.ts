@@ -35,7 +35,7 @@ describe("a build with logit rows", () => {
     }
     return examples;
   }
-  const settings = (overrides: Partial<BuildSettings>): BuildSettings => ({ ...defaultBuildSettings(), epochs: 3, fingerprint: false, ...overrides });
+  const settings = (overrides: Partial<BuildSettings>): BuildSettings => ({ ...defaultBuildSettings(), epochs: 3, fingerprint: false, searchTime: 0, ...overrides });
 
   it("scores exactly like hidden rows when both are float32", async () => {
     const examples = await topics();

@@ -40,7 +40,7 @@ function contents(change: Partial<ModelContents["header"]> = {}): ModelContents 
 describe("writeModel and the header schema", () => {
   it("writes a header the loader's validator accepts", () => {
     const bytes = writeModel(contents());
-    expect(() => validateHeader(headerOf(bytes), 16, 2)).not.toThrow();
+    expect(() => validateHeader(headerOf(bytes), 16, 3)).not.toThrow();
     expect(loadModel(bytes).meta.policy?.rules[0].threshold).toBe(0.9);
   });
 

@@ -62,7 +62,7 @@ describe("evaluateAll on a built model", () => {
   // be fitted (compile/calibrate.ts skips smaller or error-free splits).
   const SUPPORT_TOPICS = new URL("../../../demo-data/support-topics.csv", import.meta.url).pathname;
   let examples: Example[] = [];
-  const settings = (calibrate: boolean): BuildSettings => ({ ...defaultBuildSettings(), calibrate });
+  const settings = (calibrate: boolean): BuildSettings => ({ ...defaultBuildSettings(), calibrate, searchTime: 0 });
 
   beforeAll(async () => {
     for await (const example of readExamples(SUPPORT_TOPICS, { textFields: ["subject", "body"], labelField: "topic" })) examples.push(example);

@@ -15,7 +15,7 @@ let dataPath: string;
 beforeAll(async () => {
   directory = mkdtempSync(join(tmpdir(), "sluice-report-"));
   const examples = reportExamples(30);
-  const { bytes } = await build({ examples, settings: { ...defaultBuildSettings(), dims: 8, hashBits: 12, charSpan: [0, 0], minDocs: 1 }, buildTime: "2026-01-01T00:00:00.000Z" });
+  const { bytes } = await build({ examples, settings: { ...defaultBuildSettings(), dims: 8, hashBits: 12, charSpan: [0, 0], minDocs: 1, searchTime: 0 }, buildTime: "2026-01-01T00:00:00.000Z" });
   modelPath = join(directory, "model.sluice");
   dataPath = join(directory, "data.jsonl");
   writeFileSync(modelPath, bytes);

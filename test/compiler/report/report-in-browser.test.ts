@@ -54,7 +54,7 @@ beforeAll(async () => {
   const dataFile = join(REPO, "demo-data/contact-form.jsonl");
   const examples: Example[] = [];
   for await (const example of readExamples(dataFile, { textFields: ["message"], labelField: "label" })) examples.push(example);
-  const settings = { ...defaultBuildSettings(), targetPrecision: { spam: 0.95 }, targetRecall: { abusive: 0.9 }, reviewBelow: 0.6, maxBytes: 128 * 1024 };
+  const settings = { ...defaultBuildSettings(), targetPrecision: { spam: 0.95 }, targetRecall: { abusive: 0.9 }, reviewBelow: 0.6, maxBytes: 128 * 1024, searchTime: 0 };
   const dataSha256 = createHash("sha256").update(readFileSync(dataFile)).digest("hex");
   const { bytes } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z", dataSha256, dataName: "contact-form.jsonl", fields: { text: ["message"], label: "label" } });
   demoPath = join(OUTPUT, "report.html");

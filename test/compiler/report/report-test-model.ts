@@ -62,6 +62,7 @@ export async function buildReportModel(): Promise<{ model: Model; examples: Repo
     charSpan: [0, 0] as [number, number],
     minDocs: 1,
     epochs: 15,
+    searchTime: 0,
     holdout: 0.25,
     targetPrecision: { [SCRIPT_LABEL]: 0.8 },
     reviewBelow: 0.5,

@@ -72,9 +72,9 @@ describe("the version 1 golden model file", () => {
 
   it("is refused with a clear message when its version is one this runtime does not know", () => {
     const future = bytes.slice();
-    new DataView(future.buffer).setUint16(8, 3, true);
+    new DataView(future.buffer).setUint16(8, 4, true);
     expect(() => loadModel(future)).toThrowError(ModelFormatError);
-    expect(() => loadModel(future)).toThrowError(/format version 3 is not supported: this runtime reads version 1, 2/);
+    expect(() => loadModel(future)).toThrowError(/format version 4 is not supported: this runtime reads version 1, 2, 3/);
   });
 });
 
@@ -140,5 +140,42 @@ describe("the version 2 golden model file (logit rows)", () => {
       const b = v2.score(text).scores;
       for (let k = 0; k < a.length; k++) expect(Math.abs(a[k] - b[k])).toBeLessThan(0.005);
     }
+  });
+});
+
+const bytesV3 = new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v3.sluice", import.meta.url)));
+
+describe("the version 3 golden model file (unspaced scripts)", () => {
+  it("starts with format version 3 and records unspacedScripts in its featurizer settings", () => {
+    const view = new DataView(bytesV3.buffer, bytesV3.byteOffset, bytesV3.byteLength);
+    expect(view.getUint16(8, true)).toBe(3);
+    const header = unpack(bytesV3.subarray(16, 16 + view.getUint32(12, true))) as Record<string, any>;
+    expect(header.featurizer.unspacedScripts).toBe(true);
+  });
+
+  it("reads Japanese text one letter per token, with letter pairs as word pairs", () => {
+    const model = loadModel(bytesV3);
+    const explained = model.explain("配送", { top: 1 });
+    expect(explained.tokenCount).toBe(2);
+    expect(explained.labels[0].features.map((f) => f.feature).sort()).toEqual(["配", "配 送", "送"].sort());
+  });
+
+  it("scores texts exactly as when it was recorded", () => {
+    expect(bytesV3.length).toBe(1604);
+    const model = loadModel(bytesV3);
+    expect(model.meta.version).toBe("204584e4");
+    expect(model.classify("refund my parcel", { top: 2 })).toEqual([
+      { label: "billing", score: Math.fround(0.550634503364563) },
+      { label: "shipping", score: Math.fround(0.449365496635437) },
+    ]);
+    expect(Array.from(model.score("配送が遅い").scores)).toEqual([0.2786082625389099, 0.7213917374610901]);
+  });
+});
+
+describe("older files under the version 3 runtime", () => {
+  it("keep reading an unspaced run as one word, as they were built to", () => {
+    // The version 2 file has no unspacedScripts setting: "配送" stays one token there.
+    const explained = loadModel(bytesV2).explain("配送", { top: 1 });
+    expect(explained.tokenCount).toBe(1);
   });
 });

@@ -11,6 +11,7 @@ import { headerOf, withChecksum, withHeader } from "./model-mutations.ts";
 const goldenFiles: [string, Uint8Array][] = [
   ["version 1, hidden rows", new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny.sluice", import.meta.url)))],
   ["version 2, logit rows", new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v2.sluice", import.meta.url)))],
+  ["version 3, unspaced scripts", new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v3.sluice", import.meta.url)))],
 ];
 
 function expectRefused(bytes: Uint8Array, code?: string): void {

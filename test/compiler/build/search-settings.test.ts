@@ -1,0 +1,70 @@
+// The build's own setting search (compiler/build/search-settings.ts) on the demo support topics
+// (an invented scenario, demo-data/README.md): reproducible for a seed, never overriding what
+// the user set, and bounded by its time budget. Times are checked only against generous
+// bounds (the machine may be busy); speed itself is measured by the benchmarks.
+
+import { beforeAll, describe, expect, it } from "vitest";
+import { build } from "../../../compiler/build/build.ts";
+import { defaultBuildSettings } from "../../../compiler/build/build-settings.ts";
+import { autoSearchSeconds, dimsForLabels } from "../../../compiler/build/search-settings.ts";
+import { readExamples, type Example } from "../../../compiler/read/index.ts";
+
+const SUPPORT_TOPICS = new URL("../../../demo-data/support-topics.csv", import.meta.url).pathname;
+const BUILD_TIME = "2024-05-01T12:00:00.000Z";
+let examples: Example[] = [];
+
+beforeAll(async () => {
+  for await (const example of readExamples(SUPPORT_TOPICS, { textFields: ["subject", "body"], labelField: "topic" })) examples.push(example);
+  examples = examples.slice(0, 1200);
+});
+
+const settings = (overrides: Record<string, unknown> = {}) => ({ ...defaultBuildSettings(), hashBits: 16, searchTime: 600, ...overrides });
+
+describe("the build's setting search", () => {
+  it("chooses the same settings and writes the same bytes for the same seed", async () => {
+    const first = await build({ examples, settings: settings(), explicit: ["hashBits", "searchTime"], buildTime: BUILD_TIME });
+    const second = await build({ examples, settings: settings(), explicit: ["hashBits", "searchTime"], buildTime: BUILD_TIME });
+    expect(first.report.search?.chosen).toEqual(second.report.search?.chosen);
+    expect(first.report.search?.candidates.map((c) => c.macroF1)).toEqual(second.report.search?.candidates.map((c) => c.macroF1));
+    expect(Buffer.compare(Buffer.from(first.bytes), Buffer.from(second.bytes))).toBe(0);
+    // It compared more than its starting point and says why it kept what it kept.
+    expect(first.report.search?.candidates.length).toBeGreaterThan(2);
+    for (const candidate of first.report.search?.candidates ?? []) expect(candidate.verdict).not.toBe("");
+  });
+
+  it("never changes a setting the user gave", async () => {
+    const given = { epochs: 3, learningRate: 0.3, charSpan: [3, 5] as [number, number], weighting: "mean" as const, dims: 12 };
+    const { report } = await build({ examples, settings: settings(given), explicit: ["hashBits", "searchTime", "epochs", "learningRate", "charSpan", "weighting", "dims"], buildTime: BUILD_TIME });
+    expect(report.search?.chosen).toMatchObject({ ...given, head: "softmax" });
+    // Nothing was left to try but the starting point.
+    expect(report.search?.candidates).toHaveLength(1);
+    expect(report.search?.explicit.sort()).toEqual(["charSpan", "dims", "epochs", "learningRate", "weighting"]);
+  });
+
+  it("stops trying candidates once its time budget is spent", async () => {
+    const { report } = await build({ examples, settings: settings({ searchTime: 0.5 }), explicit: ["hashBits", "searchTime"], buildTime: BUILD_TIME });
+    const search = report.search;
+    expect(search?.budgetSeconds).toBe(0.5);
+    // The starting point always runs; after it nothing starts that the budget cannot pay for.
+    // Generous margin: one more candidate's time, as the estimate may be off on a busy machine.
+    expect(search?.seconds ?? Infinity).toBeLessThanOrEqual(0.5 + 3 * (search?.candidates[0].seconds ?? 0) + 2);
+    expect(search?.stoppedByBudget).toBe(true);
+    expect(report.warnings.some((w) => /stopped at its time budget/.test(w))).toBe(true);
+  });
+
+  it("does not search when --search-time is 0", async () => {
+    const { report } = await build({ examples, settings: settings({ searchTime: 0, epochs: 2 }), buildTime: BUILD_TIME });
+    expect(report.search).toBeNull();
+  });
+});
+
+describe("search defaults", () => {
+  it("sizes dims to the label count and scales the budget with the data", () => {
+    expect(dimsForLabels(2)).toBe(24);
+    expect(dimsForLabels(40)).toBe(32);
+    expect(dimsForLabels(456)).toBe(48);
+    expect(autoSearchSeconds(0)).toBe(10);
+    expect(autoSearchSeconds(1_500_000)).toBe(22);
+    expect(autoSearchSeconds(1e9)).toBe(120);
+  });
+});
