@@ -15,11 +15,7 @@ import { createApp, type SluiceApp } from "./create-app.ts";
 import { handleEmail } from "./handle-email.ts";
 import type { IncomingEmailMessage, WorkerEnv, WorkerExecutionContext } from "./platform-types.ts";
 
-export { createApp } from "./create-app.ts";
-export type { SluiceApp } from "./create-app.ts";
-export { appConfigFromEnv, resolveAppConfig, DEFAULT_APP_CONFIG, ConfigError } from "./app-config.ts";
-export type { AppConfig, EmailConfig } from "./app-config.ts";
-export type { EmailModels, EmailOutcome } from "./route-email.ts";
+export * from "./index.ts";
 
 const moderationModel = loadModel(moderationBytes);
 const routingModel = loadModel(routingBytes);
