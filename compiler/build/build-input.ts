@@ -21,8 +21,9 @@ export interface BuildInput {
   dataName?: string;
   onProgress?: (stage: string, progress: TrainProgress) => void;
   onMessage?: (message: string) => void;
-  /** Which data fields held the text and the label (recorded so eval and classify can default to them). */
-  fields?: { text: string[]; label: string };
+  /** Which data fields held the text and the label(s), and the separator of several labels in
+   * one cell (recorded so eval, classify, compare and report read data the same way). */
+  fields?: { text: string[]; label: string; labelSep?: string };
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */

@@ -53,6 +53,10 @@ export interface SettingSpec<K extends keyof BuildSettings> {
   max?: number;
   values?: readonly string[];
   default: BuildSettings[K];
+  /** The value's placeholder in help (`L=P`); from the kind when absent. */
+  placeholder?: string;
+  /** The default as help and README show it, when the value alone would mislead (e.g. chosen from the data). */
+  defaultText?: string;
 }
 
 /** The table. Defaults were picked by measurement on the demo data and the SpamAssassin split (see README). */
@@ -85,9 +89,9 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   fineTuneEpochs: { flag: "--fine-tune-epochs", kind: "int", min: 0, max: 100, default: 2, description: "epochs retraining the output layer on the compiled rows" },
   foldOutput: { flag: "--fold-output", kind: "boolean", default: true, description: "store each row's contribution to every label's logit (the output layer multiplied in) when there are fewer labels than dims: smaller and faster (--no-fold-output keeps the layer)" },
   maxTokens: { flag: "--max-tokens", kind: "int", min: 1, max: 1 << 20, default: 2000, description: "tokens read per text; the rest is ignored and reported" },
-  targetPrecision: { flag: "--target-precision", kind: "map", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },
-  targetRecall: { flag: "--target-recall", kind: "map", default: {}, description: "label=R: threshold reaching recall R on validation" },
-  actions: { flag: "--action", kind: "actions", default: {}, description: "label=block|review|route:<destination>: what a label's rule does (default block for precision targets, review for recall-only targets)" },
+  targetPrecision: { flag: "--target-precision", kind: "map", placeholder: "L=P", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },
+  targetRecall: { flag: "--target-recall", kind: "map", placeholder: "L=R", default: {}, description: "label=R: threshold reaching recall R on validation" },
+  actions: { flag: "--action", kind: "actions", placeholder: "L=ACTION", default: {}, description: "ACTION = block, review or route:DEST: what a label's rule does (default block for precision targets, review for recall-only targets)" },
   reviewBelow: { flag: "--review-below", kind: "float", min: 0, max: 1, default: 0, description: "send texts whose top score is below this to review (0 = off)" },
   calibrate: { flag: "--calibrate", kind: "boolean", default: true, description: "fit temperature scaling on validation (--no-calibrate to skip)" },
   fingerprint: { flag: "--fingerprint", kind: "boolean", default: true, description: "store a Bloom filter (~1 byte per training text) so eval can warn about overlap with training data (--no-fingerprint leaves it out)" },

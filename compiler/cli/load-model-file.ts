@@ -22,10 +22,13 @@ export function loadModelFile(path: string): Model {
   }
 }
 
-/** The text and label fields the model was built from (so eval/classify default to them). */
+/** The text and label fields and the label separator the model was built with (so eval,
+ * classify, compare and report read data the same way unless told otherwise). */
 export function fieldsOf(model: Model): FieldDefaults {
-  const fields = model.meta.provenance.fields as { text?: unknown; label?: unknown } | null | undefined;
+  const fields = model.meta.provenance.fields as { text?: unknown; label?: unknown; labelSep?: unknown } | null | undefined;
   const text = Array.isArray(fields?.text) && fields.text.every((f) => typeof f === "string") ? (fields.text as string[]) : ["text"];
   const label = typeof fields?.label === "string" ? fields.label : "label";
-  return { textFields: text, labelField: label };
+  const defaults: FieldDefaults = { textFields: text, labelField: label };
+  if (typeof fields?.labelSep === "string" && fields.labelSep !== "") defaults.labelSep = fields.labelSep;
+  return defaults;
 }

@@ -2,13 +2,7 @@
 // boolean `--name` / `--no-name`). Each command declares its flags; anything else is an
 // error that names the flag and lists the ones the command knows.
 
-export interface FlagSpec {
-  /** Takes a value (string) or is a switch. */
-  takesValue: boolean;
-  /** May be given several times (values are collected). */
-  repeatable?: boolean;
-  description: string;
-}
+import type { OptionSpec } from "./command-table.ts";
 
 export interface ParsedArgs {
   positionals: string[];
@@ -26,9 +20,9 @@ export class UsageError extends Error {
 
 /**
  * Parses argv against the flags a command knows.
- * @example parseArgs(["data.csv", "--dims", "16"], { "--dims": { takesValue: true, description: "" } })
+ * @example parseArgs(["data.csv", "--dims", "16"], { "--dims": { value: "N", description: "width" } })
  */
-export function parseArgs(argv: readonly string[], flags: Record<string, FlagSpec>): ParsedArgs {
+export function parseArgs(argv: readonly string[], flags: Record<string, OptionSpec>): ParsedArgs {
   const result: ParsedArgs = { positionals: [], values: new Map(), switches: new Map() };
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i];
@@ -41,10 +35,10 @@ export function parseArgs(argv: readonly string[], flags: Record<string, FlagSpe
       continue;
     }
     const equals = arg.indexOf("=");
-    let name = equals >= 0 ? arg.slice(0, equals) : arg;
+    const name = equals >= 0 ? arg.slice(0, equals) : arg;
     let inline: string | undefined = equals >= 0 ? arg.slice(equals + 1) : undefined;
-    let spec = flags[name];
-    if (!spec && name.startsWith("--no-") && flags[`--${name.slice(5)}`] && !flags[`--${name.slice(5)}`].takesValue) {
+    const spec = flags[name];
+    if (!spec && name.startsWith("--no-") && flags[`--${name.slice(5)}`] && flags[`--${name.slice(5)}`].value === undefined) {
       result.switches.set(`--${name.slice(5)}`, false);
       continue;
     }
@@ -52,7 +46,7 @@ export function parseArgs(argv: readonly string[], flags: Record<string, FlagSpe
       const known = Object.keys(flags).sort().join(", ");
       throw new UsageError(`unknown option ${name}; this command knows: ${known}`);
     }
-    if (!spec.takesValue) {
+    if (spec.value === undefined) {
       if (inline !== undefined) throw new UsageError(`${name} is a switch and takes no value`);
       result.switches.set(name, true);
       continue;
@@ -61,12 +55,11 @@ export function parseArgs(argv: readonly string[], flags: Record<string, FlagSpe
       if (i + 1 >= argv.length) throw new UsageError(`${name} needs a value`);
       inline = argv[++i];
     }
+    if (spec.values && !spec.values.includes(inline)) throw new UsageError(`${name}: expected ${listOfChoices(spec.values)}, got ${JSON.stringify(inline)}`);
     const list = result.values.get(name) ?? [];
     if (list.length > 0 && !spec.repeatable) throw new UsageError(`${name} was given twice`);
     list.push(inline);
     result.values.set(name, list);
-    name = "";
-    spec = undefined as unknown as FlagSpec;
   }
   return result;
 }
@@ -74,4 +67,9 @@ export function parseArgs(argv: readonly string[], flags: Record<string, FlagSpe
 /** The single value of a flag, or undefined. */
 export function valueOf(args: ParsedArgs, flag: string): string | undefined {
   return args.values.get(flag)?.[0];
+}
+
+/** ["a", "b", "c"] → "a, b or c". */
+export function listOfChoices(values: readonly string[]): string {
+  return values.length <= 1 ? values.join("") : `${values.slice(0, -1).join(", ")} or ${values[values.length - 1]}`;
 }

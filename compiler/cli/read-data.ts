@@ -4,31 +4,34 @@
 import { createHash } from "node:crypto";
 import { createReadStream } from "node:fs";
 import { createReadReport, readExamples, readExamplesFromText, type DataFormat, type Example, type ReadReport } from "../read/index.ts";
-import { valueOf, type FlagSpec, type ParsedArgs } from "./parse-args.ts";
+import { valueOf, type ParsedArgs } from "./parse-args.ts";
 
-export const DATA_FLAGS: Record<string, FlagSpec> = {
-  "--text-field": { takesValue: true, description: "field(s) holding the text, comma-separated, joined in order (default text)" },
-  "--label-field": { takesValue: true, description: "field holding the label(s) (default label)" },
-  "--label-sep": { takesValue: true, description: "separator of several labels in one cell" },
-  "--format": { takesValue: true, description: "csv, tsv or jsonl (default: from the extension)" },
-  "--skip-bad": { takesValue: false, description: "skip bad rows (reported) instead of stopping at the first" },
-};
-
+/** How to read a file when no flag says otherwise: the model's fields, or a config's. */
 export interface FieldDefaults {
   textFields: string[];
   labelField: string;
+  /** Separator of several labels in one cell, when the data has them. */
+  labelSep?: string;
+  format?: DataFormat;
+}
+
+/** The reading settings a config file records (`sluice tune` writes them, `build --config` reads them). */
+export function readSettingsOf(options: ReturnType<typeof readOptionsFrom>): FieldDefaults {
+  const settings: FieldDefaults = { textFields: options.textFields, labelField: options.labelField };
+  if (options.labelSep !== undefined) settings.labelSep = options.labelSep;
+  if (options.format !== undefined) settings.format = options.format;
+  return settings;
 }
 
 /** Reader options from the data flags. */
 export function readOptionsFrom(args: ParsedArgs, defaults: FieldDefaults, requireLabels: boolean) {
   const textFieldValue = valueOf(args, "--text-field");
   const format = valueOf(args, "--format");
-  if (format !== undefined && !["csv", "tsv", "jsonl"].includes(format)) throw new Error(`--format: expected csv, tsv or jsonl, got "${format}"`);
   return {
     textFields: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()).filter(Boolean) : defaults.textFields,
     labelField: valueOf(args, "--label-field") ?? defaults.labelField,
-    labelSep: valueOf(args, "--label-sep"),
-    format: format as DataFormat | undefined,
+    labelSep: valueOf(args, "--label-sep") ?? defaults.labelSep,
+    format: (format as DataFormat | undefined) ?? defaults.format,
     requireLabels,
     skipBad: args.switches.get("--skip-bad") === true,
   };

@@ -8,15 +8,9 @@ import type { Model } from "../../runtime/model/model.ts";
 import { scoreTexts, type LabelledText } from "./evaluate.ts";
 import { computeClassificationMetrics, mcnemarTest, type McNemarResult } from "../metrics/index.ts";
 
-/** Exit codes of `sluice compare` (1 and 2 are the CLI's error and usage codes). */
-export const COMPARE_EXIT_CODES = {
-  /** Every requested gate passed. */
-  pass: 0,
-  /** --require-better: the candidate is not significantly better (needs p < 0.05 and c > b). */
-  notBetter: 3,
-  /** --max-regression: the candidate's metric dropped by more than allowed. */
-  regression: 4,
-} as const;
+import { COMPARE_EXIT_CODES } from "./compare-exit-codes.ts";
+
+export { COMPARE_EXIT_CODES };
 
 /** Significance level of --require-better. */
 export const SIGNIFICANCE_LEVEL = 0.05;

@@ -2,26 +2,38 @@
 
 import type { Model } from "../../runtime/model/model.ts";
 import { evaluateModel, scoreTexts, type LabelledText } from "../evaluate/evaluate.ts";
+import { OBJECTIVES } from "./tune-defaults.ts";
 import { precisionRecallCurve, thresholdForTargetPrecision } from "../metrics/index.ts";
 
-export type TuneMetric = { kind: "macro-f1" } | { kind: "accuracy" } | { kind: "recall-at-precision"; label: string; precision: number };
+export type TuneMetric = { kind: "macro-f1" } | { kind: "accuracy" } | { kind: "recall"; label: string; precision: number };
 
 /**
- * Parses --metric: "macro-f1", "accuracy" or "recall-at-precision:spam=0.99".
- * @example parseMetric("recall-at-precision:spam=0.99") // { kind: "recall-at-precision", label: "spam", precision: 0.99 }
+ * Parses --objective and --at-precision: "macro-f1", "accuracy", or "recall" of one label
+ * at the threshold that reaches a precision ("spam=0.99").
+ * @example parseObjective("recall", "spam=0.99") // { kind: "recall", label: "spam", precision: 0.99 }
  */
-export function parseMetric(text: string): TuneMetric {
-  if (text === "macro-f1" || text === "accuracy") return { kind: text };
-  const match = /^recall-at-precision:([^=]+)=(0?\.\d+)$/.exec(text);
-  if (match) return { kind: "recall-at-precision", label: match[1], precision: Number(match[2]) };
-  throw new Error(`--metric: expected macro-f1, accuracy or recall-at-precision:<label>=<precision>, got "${text}"`);
+export function parseObjective(objective: string, atPrecision?: string): TuneMetric {
+  if (objective === "macro-f1" || objective === "accuracy") {
+    if (atPrecision !== undefined) throw new Error(`--at-precision goes with --objective recall, not ${objective}`);
+    return { kind: objective };
+  }
+  if (objective !== "recall") throw new Error(`--objective: expected ${OBJECTIVES.join(", ")}, got "${objective}"`);
+  if (atPrecision === undefined) throw new Error('--objective recall needs --at-precision label=P, e.g. --at-precision spam=0.99');
+  const match = /^\s*([^=]+?)\s*=\s*(0?\.\d+)\s*$/.exec(atPrecision);
+  if (!match) throw new Error(`--at-precision: expected label=P with P between 0 and 1, e.g. spam=0.99, got "${atPrecision}"`);
+  return { kind: "recall", label: match[1], precision: Number(match[2]) };
+}
+
+/** How an objective reads in output: "macro-f1", "recall of spam at precision 0.99". */
+export function describeObjective(metric: TuneMetric): string {
+  return metric.kind === "recall" ? `recall of ${metric.label} at precision ${metric.precision}` : metric.kind;
 }
 
 /** Scores a model on validation data (higher is better). */
 export function scoreModel(model: Model, validation: readonly LabelledText[], metric: TuneMetric): number {
-  if (metric.kind === "recall-at-precision") {
+  if (metric.kind === "recall") {
     const index = model.labels.indexOf(metric.label);
-    if (index < 0) throw new Error(`--metric: label "${metric.label}" is not in the data (known: ${model.labels.join(", ")})`);
+    if (index < 0) throw new Error(`--at-precision: label "${metric.label}" is not in the data (known: ${model.labels.join(", ")})`);
     const scored = scoreTexts(model, validation.map((e) => e.text));
     const k = scored.labelCount;
     const scores = Float64Array.from({ length: scored.count }, (_, i) => scored.scores[i * k + index]);

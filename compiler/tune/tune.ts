@@ -14,12 +14,14 @@ import { createRandom } from "../train/random.ts";
 import { stratifiedSplit } from "../train/split.ts";
 import { microsecondsPerDoc, scoreModel, type TuneMetric } from "./objective.ts";
 import { baselineSettings, sampleSettings, sizeFloor } from "./search-space.ts";
+import { defaultTuneSeconds } from "./tune-defaults.ts";
 
 export interface TuneOptions {
   examples: readonly LabelledText[];
   /** Fixed choices (head, size budget, seed, policy targets) the search builds on. */
   base: BuildSettings;
-  timeSeconds: number;
+  /** Time budget; undefined = a multiple of the default build's time (see tune-budget.ts). */
+  timeSeconds?: number;
   /** Stop after this many trials even when time is left (makes runs reproducible). */
   maxTrials?: number;
   maxMicroseconds?: number;
@@ -55,6 +57,10 @@ export interface TuneResult {
   /** Full-size trials no other full-size trial beats on score, bytes and µs/doc at once. */
   pareto: TrialResult[];
   folds: number;
+  /** The time budget the search ran under, in seconds. */
+  timeSeconds: number;
+  /** Seconds of one default build (the baseline trial's time per fold). */
+  defaultBuildSeconds: number;
 }
 
 const ETA = 3;
@@ -67,7 +73,8 @@ const SMALL_DATA = 3000;
  */
 export async function tune(options: TuneOptions): Promise<TuneResult> {
   const started = performance.now();
-  const secondsLeft = () => options.timeSeconds - (performance.now() - started) / 1000;
+  let timeSeconds = options.timeSeconds ?? Infinity;
+  const secondsLeft = () => timeSeconds - (performance.now() - started) / 1000;
   const labels = [...new Set(options.examples.flatMap((e) => e.labels))].sort();
   const labelIndex = new Map(labels.map((l, i) => [l, i]));
   const firstLabel = options.examples.map((e) => labelIndex.get(e.labels[0]) as number);
@@ -123,6 +130,8 @@ export async function tune(options: TuneOptions): Promise<TuneResult> {
   };
 
   const baseline = await runTrial(baselineSettings(options.base), 1, true);
+  const defaultBuildSeconds = baseline.seconds / splits.length;
+  if (options.timeSeconds === undefined) timeSeconds = defaultTuneSeconds(defaultBuildSeconds);
   while (canAfford(RUNGS[0])) {
     let rung = drawSettings(options.base, labels.length, ETA ** (RUNGS.length - 1), random);
     for (let r = 0; r < RUNGS.length && rung.length > 0; r++) {
@@ -139,7 +148,7 @@ export async function tune(options: TuneOptions): Promise<TuneResult> {
   }
   const full = trials.filter((t) => t.resource === 1);
   const chosen = (best ?? baseline) as TrialResult;
-  return { best: chosen, baseline, trials, pareto: paretoFront(full), folds };
+  return { best: chosen, baseline, trials, pareto: paretoFront(full), folds, timeSeconds, defaultBuildSeconds };
 }
 
 function drawSettings(base: BuildSettings, labelCount: number, count: number, random: ReturnType<typeof createRandom>): BuildSettings[] {

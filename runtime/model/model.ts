@@ -7,6 +7,7 @@
 //   logit_k = (Σ_f w_f · row_f[k] / Σ_f w_f + bias_k) / temperature
 // and a feature costs one multiply-add per label instead of one per embedding dimension.
 
+import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
 import { InputError } from "../errors.ts";
 import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featurizer } from "../featurizer/featurizer.ts";
 import { explainLabels } from "./explain-labels.ts";
@@ -137,8 +138,8 @@ export class Model implements NodeScorer {
   explain(text: string, options: { top?: number; features?: number } = {}): Explanation {
     checkText(text);
     const scores = this.scoreText(text);
-    const order = rankLabels(scores, options.top ?? 1);
-    return explainLabels(this, text, order, options.features ?? 10);
+    const order = rankLabels(scores, options.top ?? SURFACE_DEFAULTS.explainTop);
+    return explainLabels(this, text, order, options.features ?? SURFACE_DEFAULTS.explainFeatures);
   }
 
   // ---- scoring ---------------------------------------------------------------------

@@ -2,6 +2,7 @@
 // bindings ([vars] and secrets in wrangler.toml) or from process.env under `sluice serve`.
 // One table of defaults; every variable is parsed with an error that names it.
 
+import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
 import type { RateLimitBinding } from "./platform-types.ts";
 
 /** Where e-mail goes, by the routing model's topic. */
@@ -45,7 +46,7 @@ export const DEFAULT_APP_CONFIG: AppConfig = {
   maxBodyBytes: 128 * 1024,
   maxTexts: 100,
   moderateFields: ["text"],
-  reviewBelow: 0.6,
+  reviewBelow: SURFACE_DEFAULTS.reviewBelow,
   rateLimiter: null,
   email: { routes: {}, fallback: null, minScore: 0.7 },
 };

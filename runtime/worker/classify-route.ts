@@ -1,6 +1,8 @@
 // POST /v1/classify: labels and scores for one text ({ "text" }) or several ({ "texts" }),
 // the policy decision when the model has a policy, and what the featurizer read.
-// Options: "top" (labels per text, default all), "minScore" (leave out lower scores).
+// Options: "top" (labels per text; by default the model's own choice, as in the library and
+// the CLI: the best label, or every label above its threshold for a sigmoid head) and
+// "minScore" (leave out lower scores).
 
 import type { Handler } from "hono";
 import type { LabelScore, Model } from "../model/model.ts";
@@ -30,7 +32,7 @@ export function classifyRoute(model: Model, config: AppConfig): Handler {
   const hasPolicy = model.meta.policy !== null;
   return async (c) => {
     const body = await readBodyFields(c, ["json"]);
-    const top = integerOption(body.top, "top", 1, labelCount, labelCount);
+    const top = body.top === undefined || body.top === null ? undefined : integerOption(body.top, "top", 1, labelCount, labelCount);
     const minScore = numberOption(body.minScore, "minScore", 0, 1, 0);
     const classifyOne = (text: string): TextResult => {
       const labels = model.classify(text, { top, minScore });

@@ -1,9 +1,11 @@
 // POST /v1/explain: for the top labels of a text, the features with the largest exact
 // contributions to each label's logit (what the playground page shows), plus the decision.
-// Options: "top" (labels, default 3), "features" (per label, default 8, at most 50).
+// Options: "top" (labels) and "features" (per label, at most 50), with the defaults every
+// surface shares (runtime/surface-defaults.ts).
 
 import type { Handler } from "hono";
 import type { Model } from "../model/model.ts";
+import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
 import type { AppConfig } from "./app-config.ts";
 import { decideText } from "./decide-text.ts";
 import { readBodyFields } from "./read-request-body.ts";
@@ -18,8 +20,8 @@ export function explainRoute(model: Model, config: AppConfig): Handler {
   return async (c) => {
     const body = await readBodyFields(c, ["json"]);
     const text = requireText(body.text, "text");
-    const top = integerOption(body.top, "top", 1, labelCount, Math.min(3, labelCount));
-    const features = integerOption(body.features, "features", 1, 50, 8);
+    const top = integerOption(body.top, "top", 1, labelCount, Math.min(SURFACE_DEFAULTS.explainTop, labelCount));
+    const features = integerOption(body.features, "features", 1, 50, SURFACE_DEFAULTS.explainFeatures);
     const explanation = model.explain(text, { top, features });
     const decision = decideText(model, text, config.reviewBelow);
     return c.json({ version: model.meta.version, ...explanation, decision });

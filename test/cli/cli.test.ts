@@ -91,7 +91,7 @@ describe("sluice eval --json", () => {
 });
 
 describe("sluice classify", () => {
-  it("prints one JSON line per input line with label, score and top labels", async () => {
+  it("prints one JSON line per input line with label, score and the listed labels", async () => {
     const run = await sluice(["classify", model, SAMPLES, "--json", "--top", "3"]);
     expect(run.code, run.stderr).toBe(0);
     const expectedLines = (await readFile(join(REPO, SAMPLES), "utf8")).split("\n").filter((line) => line.trim() !== "").length;
@@ -102,8 +102,23 @@ describe("sluice classify", () => {
       expect(typeof result.label).toBe("string");
       expect(result.score).toBeGreaterThan(0);
       expect(result.score).toBeLessThanOrEqual(1);
-      expect(result.top).toHaveLength(3);
-      expect(result.top[0]).toEqual({ label: result.label, score: result.score });
+      expect(result.labels).toHaveLength(3);
+      expect(result.labels[0]).toEqual({ label: result.label, score: result.score });
+    }
+  });
+
+  it("prints aligned columns under a header without --json, one row per text", async () => {
+    const run = await sluice(["classify", model, SAMPLES, "--top", "2"]);
+    expect(run.code, run.stderr).toBe(0);
+    const [header, ...rows] = run.stdout.trimEnd().split("\n");
+    expect(header).toMatch(/^row +decision +label 1 +score 1 +label 2 +score 2 +text$/);
+    // Every row's text starts in the header's "text" column, and its first score sits under "score 1".
+    const textColumn = header.indexOf("text");
+    const scoreEnd = header.indexOf("score 1") + "score 1".length;
+    for (const row of rows) {
+      expect(row[textColumn - 1]).toBe(" ");
+      expect(row.slice(scoreEnd - 5, scoreEnd)).toMatch(/^[01]\.\d{3}$/);
+      expect(row).not.toContain("\t");
     }
   });
 

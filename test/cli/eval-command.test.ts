@@ -76,7 +76,7 @@ describe("sluice eval on a model with a policy", () => {
     let hits = 0;
     let positives = 0;
     classified.forEach((line, i) => {
-      const spam = (JSON.parse(line) as { top: { label: string; score: number }[] }).top.find((t) => t.label === "spam")?.score ?? 0;
+      const spam = (JSON.parse(line) as { labels: { label: string; score: number }[] }).labels.find((t) => t.label === "spam")?.score ?? 0;
       const isSpam = contactRecords[i].label === "spam";
       if (isSpam) positives++;
       if (spam >= threshold) {

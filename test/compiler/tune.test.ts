@@ -2,7 +2,8 @@
 import { describe, expect, it } from "vitest";
 import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
 import { readExamples } from "../../compiler/read/index.ts";
-import { parseMetric } from "../../compiler/tune/objective.ts";
+import { parseObjective } from "../../compiler/tune/objective.ts";
+import { defaultTuneSeconds } from "../../compiler/tune/tune-defaults.ts";
 import { sizeFloor } from "../../compiler/tune/search-space.ts";
 import { paretoFront, tune, type TrialResult } from "../../compiler/tune/tune.ts";
 
@@ -16,7 +17,7 @@ describe("tune", () => {
   it("should never choose worse than the defaults, keep every model in budget, and repeat itself for a seed", async () => {
     const examples = await contactForm(900);
     const base = { ...defaultBuildSettings(), maxBytes: 48 * 1024 };
-    const options = { examples, base, timeSeconds: 600, maxTrials: 8, metric: parseMetric("macro-f1"), seed: 5 };
+    const options = { examples, base, timeSeconds: 600, maxTrials: 8, metric: parseObjective("macro-f1"), seed: 5 };
     const first = await tune(options);
     expect(first.folds).toBe(3); // small data: cross-validation
     expect(first.trials).toHaveLength(8);
@@ -27,10 +28,25 @@ describe("tune", () => {
     expect(second.best.settings).toEqual(first.best.settings);
   }, 180_000);
 
-  it("should parse the recall-at-precision metric and refuse a malformed one", () => {
-    expect(parseMetric("recall-at-precision:spam=0.99")).toEqual({ kind: "recall-at-precision", label: "spam", precision: 0.99 });
-    expect(() => parseMetric("f2")).toThrow(/expected macro-f1, accuracy or recall-at-precision/);
+  it("should read --objective recall with --at-precision and refuse the pieces on their own", () => {
+    expect(parseObjective("recall", "spam=0.99")).toEqual({ kind: "recall", label: "spam", precision: 0.99 });
+    expect(() => parseObjective("recall")).toThrow(/needs --at-precision label=P/);
+    expect(() => parseObjective("accuracy", "spam=0.99")).toThrow(/goes with --objective recall/);
+    expect(() => parseObjective("recall", "spam=1.5")).toThrow(/expected label=P/);
+    expect(() => parseObjective("f2")).toThrow(/expected macro-f1, accuracy, recall/);
   });
+
+  it("should take its default budget from the data: 25 default builds, never under 20 s", () => {
+    expect(defaultTuneSeconds(0.3)).toBe(20);
+    expect(defaultTuneSeconds(4)).toBe(100);
+  });
+
+  it("should spend a budget derived from the default build's time when none is given", async () => {
+    const examples = await contactForm(300);
+    const result = await tune({ examples, base: defaultBuildSettings(), maxTrials: 2, metric: parseObjective("accuracy"), seed: 2 });
+    expect(result.defaultBuildSeconds).toBeGreaterThan(0);
+    expect(result.timeSeconds).toBe(defaultTuneSeconds(result.defaultBuildSeconds));
+  }, 120_000);
 
   it("should count a model's fixed parts so that impossible budgets are skipped", () => {
     const settings = { ...defaultBuildSettings(), dims: 48 };

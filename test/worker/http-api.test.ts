@@ -106,9 +106,16 @@ describe("GET /healthz and GET /v1/model", () => {
 });
 
 describe("POST /v1/classify", () => {
-  it("returns every label best first with the policy decision and what was read", async () => {
+  it("returns the labels the library lists by default, with the policy decision and what was read", async () => {
     const body = (await (await worker.fetch("/v1/classify", jsonPost({ text: QUESTION }))).json()) as Record<string, any>;
     expect(body.version).toBe(model.meta.version);
+    // One default for every surface (runtime/surface-defaults.ts): a softmax head lists its best label.
+    expect(body.labels).toEqual(JSON.parse(JSON.stringify(model.classify(QUESTION))));
+    expect(body.labels).toHaveLength(1);
+  });
+
+  it("returns every label best first when asked with top", async () => {
+    const body = (await (await worker.fetch("/v1/classify", jsonPost({ text: QUESTION, top: 3 }))).json()) as Record<string, any>;
     expect(body.labels.map((entry: { label: string }) => entry.label)).toEqual(model.classify(QUESTION, { top: 3 }).map((entry) => entry.label));
     // Softmax scores sum to one (definition of softmax; common practice, no source). Float32 rounding allows 1e-6.
     expect(Math.abs(body.labels.reduce((sum: number, entry: { score: number }) => sum + entry.score, 0) - 1)).toBeLessThan(1e-6);

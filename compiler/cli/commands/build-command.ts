@@ -4,37 +4,24 @@ import { readFileSync, statSync } from "node:fs";
 import { basename } from "node:path";
 import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
-import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, type BuildSettings } from "../../build/build-settings.ts";
+import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
 import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
-import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
-import { DATA_FLAGS, describeReadReport, readData, readOptionsFrom, sha256OfFile } from "../read-data.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
+import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256OfFile, type FieldDefaults } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { createReadReport } from "../../read/index.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
-const SETTING_FLAGS: Record<string, FlagSpec> = Object.fromEntries(
-  Object.values(BUILD_SETTINGS).map((spec) => [spec.flag, { takesValue: spec.kind !== "boolean", repeatable: spec.kind === "map" || spec.kind === "actions", description: spec.description }]),
-);
-
-export const BUILD_FLAGS: Record<string, FlagSpec> = {
-  ...DATA_FLAGS,
-  ...SETTING_FLAGS,
-  "--out": { takesValue: true, description: "output model file (default model.sluice)" },
-  "--validation": { takesValue: true, description: "validation data file (instead of --holdout)" },
-  "--config": { takesValue: true, description: "settings file (sluice.config.json); flags override it" },
-  "--json": { takesValue: false, description: "print the build report as one JSON object on stdout" },
-  "--quiet": { takesValue: false, description: "no progress and no messages on stderr" },
-  "--force": { takesValue: false, description: "replace the output file if it exists" },
-  "--on-disk": { takesValue: false, description: "stream the data through shards on disk (bounded memory; automatic above 256 MiB)" },
-};
+const BUILD_OPTIONS = optionsOf("build");
 
 /** Data files above this size are built on disk (bounded memory) without being asked. */
 const ON_DISK_ABOVE_BYTES = 256 * 1024 * 1024;
 
 /** Runs the build command; returns the exit code. */
 export async function buildCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, BUILD_FLAGS);
+  const args = parseArgs(argv, BUILD_OPTIONS);
   if (args.positionals.length !== 1) throw new UsageError("build needs exactly one data file: sluice build <data> [--out model.sluice]");
   const dataPath = args.positionals[0];
   const quiet = args.switches.get("--quiet") === true;
@@ -42,13 +29,13 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const say = (message: string) => {
     if (!quiet) process.stderr.write(`${message}\n`);
   };
-  const settings = settingsFromArgs(args);
+  const { settings, read } = settingsFromArgs(args);
   const out = valueOf(args, "--out") ?? "model.sluice";
   const force = args.switches.get("--force") === true;
-  const fields = { textFields: ["text"], labelField: "label" };
+  // Flags win over the config's reading settings, which win over the built-in defaults.
+  const fields = readSettingsOf(readOptionsFrom(args, read, true));
   const validationPath = valueOf(args, "--validation");
   const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
-  const textFieldValue = valueOf(args, "--text-field");
   const common = {
     validation,
     settings,
@@ -57,7 +44,7 @@ export async function buildCommand(argv: string[]): Promise<number> {
     dataName: basename(dataPath),
     onProgress: createProgressBar(!quiet && !json),
     onMessage: say,
-    fields: { text: textFieldValue ? textFieldValue.split(",").map((f) => f.trim()) : ["text"], label: valueOf(args, "--label-field") ?? "label" },
+    fields: { text: fields.textFields, label: fields.labelField, ...(fields.labelSep !== undefined ? { labelSep: fields.labelSep } : {}) },
   };
   const onDisk = args.switches.get("--on-disk") === true || statSync(dataPath).size > ON_DISK_ABOVE_BYTES;
   let result: Awaited<ReturnType<typeof build>>;
@@ -79,26 +66,14 @@ export async function buildCommand(argv: string[]): Promise<number> {
   return 0;
 }
 
-/** Settings from --config, then flags on top. */
-function settingsFromArgs(args: ReturnType<typeof parseArgs>): BuildSettings {
+/** The reading settings used when neither flags nor a config name them. */
+const READ_DEFAULTS: FieldDefaults = { textFields: ["text"], labelField: "label" };
+
+/** Build settings and reading settings from --config, then flags on top of the build settings. */
+function settingsFromArgs(args: ReturnType<typeof parseArgs>): { settings: BuildSettings; read: FieldDefaults } {
   const configPath = valueOf(args, "--config");
-  let partial: Record<string, unknown> = {};
-  if (configPath) {
-    let text: string;
-    try {
-      text = readFileSync(configPath, "utf8");
-    } catch (error) {
-      throw new Error(`cannot read config ${configPath}: ${(error as Error).message}`);
-    }
-    try {
-      partial = JSON.parse(text) as Record<string, unknown>;
-    } catch (error) {
-      throw new Error(`${configPath}: not valid JSON (${(error as Error).message})`);
-    }
-    if (typeof partial !== "object" || partial === null || Array.isArray(partial)) throw new Error(`${configPath}: expected a JSON object of settings`);
-    partial = (partial.build as Record<string, unknown>) ?? partial;
-  }
-  const settings = resolveBuildSettings(partial, configPath ?? "settings") as unknown as Record<string, unknown>;
+  const config = configPath ? readConfig(configPath) : { build: {}, read: READ_DEFAULTS };
+  const settings = resolveBuildSettings(config.build, configPath ?? "settings") as unknown as Record<string, unknown>;
   for (const [key, spec] of Object.entries(BUILD_SETTINGS)) {
     if (spec.kind === "boolean") {
       const value = args.switches.get(spec.flag);
@@ -113,7 +88,58 @@ function settingsFromArgs(args: ReturnType<typeof parseArgs>): BuildSettings {
       settings[key] = merged;
     } else settings[key] = parseSetting(key as keyof BuildSettings, values[values.length - 1], spec.flag);
   }
-  return settings as unknown as BuildSettings;
+  return { settings: settings as unknown as BuildSettings, read: config.read };
+}
+
+/**
+ * A config file: `{ "build": {...settings}, "read": { textFields, labelField, labelSep, format } }`
+ * as `sluice tune` writes it, or a bare object of build settings.
+ */
+function readConfig(path: string): { build: Record<string, unknown>; read: FieldDefaults } {
+  let text: string;
+  try {
+    text = readFileSync(path, "utf8");
+  } catch (error) {
+    throw new Error(`cannot read config ${path}: ${(error as Error).message}`);
+  }
+  let parsed: unknown;
+  try {
+    parsed = JSON.parse(text);
+  } catch (error) {
+    throw new SettingError(`${path}: not valid JSON (${(error as Error).message})`);
+  }
+  if (typeof parsed !== "object" || parsed === null || Array.isArray(parsed)) throw new SettingError(`${path}: expected a JSON object of settings`);
+  const object = parsed as Record<string, unknown>;
+  if (!("build" in object) && !("read" in object)) return { build: object, read: READ_DEFAULTS };
+  return { build: checkObject(object.build ?? {}, path, "build"), read: readSettingsFromConfig(object.read, path) };
+}
+
+function checkObject(value: unknown, path: string, key: string): Record<string, unknown> {
+  if (typeof value !== "object" || value === null || Array.isArray(value)) throw new SettingError(`${path}: "${key}" must be an object`);
+  return value as Record<string, unknown>;
+}
+
+function readSettingsFromConfig(value: unknown, path: string): FieldDefaults {
+  if (value === undefined) return READ_DEFAULTS;
+  const read = checkObject(value, path, "read");
+  const fail = (key: string, expected: string): never => {
+    throw new SettingError(`${path}, read setting "${key}": expected ${expected}, got ${JSON.stringify(read[key])}`);
+  };
+  for (const key of Object.keys(read)) if (!["textFields", "labelField", "labelSep", "format"].includes(key)) throw new SettingError(`${path}: unknown read setting "${key}" (known: textFields, labelField, labelSep, format)`);
+  const textFields = read.textFields ?? READ_DEFAULTS.textFields;
+  if (!Array.isArray(textFields) || textFields.length === 0 || !textFields.every((f) => typeof f === "string" && f.length > 0)) fail("textFields", "a non-empty array of field names");
+  const labelField = read.labelField ?? READ_DEFAULTS.labelField;
+  if (typeof labelField !== "string" || labelField === "") fail("labelField", "a field name");
+  const settings: FieldDefaults = { textFields: textFields as string[], labelField: labelField as string };
+  if (read.labelSep !== undefined) {
+    if (typeof read.labelSep !== "string" || read.labelSep === "") fail("labelSep", "a non-empty string");
+    settings.labelSep = read.labelSep as string;
+  }
+  if (read.format !== undefined) {
+    if (!["csv", "tsv", "jsonl"].includes(read.format as string)) fail("format", "csv, tsv or jsonl");
+    settings.format = read.format as FieldDefaults["format"];
+  }
+  return settings;
 }
 
 /** Build time for provenance: SOURCE_DATE_EPOCH (reproducible-builds.org) when set, else now. */

@@ -4,52 +4,18 @@
 import { checkGates, compareModels, COMPARE_EXIT_CODES, formatP, signed, type FlipGroup, type ModelComparison } from "../../evaluate/compare.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
-import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
-import { DATA_FLAGS, readData } from "../read-data.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
+import { readData } from "../read-data.ts";
 
-export const COMPARE_FLAGS: Record<string, FlagSpec> = {
-  ...DATA_FLAGS,
-  "--json": { takesValue: false, description: "print one JSON object on stdout (all flip counts, the first 50 of each kind)" },
-  "--require-better": { takesValue: false, description: `exit ${COMPARE_EXIT_CODES.notBetter} unless the candidate is significantly better (McNemar p < 0.05 and c > b)` },
-  "--max-regression": { takesValue: true, description: `exit ${COMPARE_EXIT_CODES.regression} when the candidate's --metric drops by more than X (absolute, e.g. 0.01)` },
-  "--metric": { takesValue: true, description: "metric for --max-regression: accuracy (default) or macro-f1" },
-  "--quiet": { takesValue: false, description: "no messages on stderr" },
-  "--help": { takesValue: false, description: "show this text" },
-};
+const COMPARE_OPTIONS = optionsOf("compare");
 
 const SHOWN_PER_GROUP = 10;
 
-/** The usage text, with the exit codes. */
-export function compareUsage(): string {
-  const flags = Object.entries(COMPARE_FLAGS).map(([flag, spec]) => [`  ${flag}${spec.takesValue ? " X" : ""}`, spec.description]);
-  const width = Math.max(...flags.map(([flag]) => flag.length));
-  return [
-    "usage: sluice compare <live> <candidate> <data> [options]",
-    "",
-    "Scores <data> with both models: accuracy, macro-F1 and per-label F1 with deltas (candidate − live),",
-    "McNemar's test on paired correctness (b = live right & candidate wrong, c = live wrong & candidate right;",
-    "exact binomial below 25 discordant pairs), and the examples whose predicted label flips.",
-    "",
-    "options:",
-    ...flags.map(([flag, description]) => `${flag.padEnd(width)}  ${description}`),
-    "",
-    "exit codes:",
-    `  ${COMPARE_EXIT_CODES.pass}  the requested gates pass (always, without --require-better / --max-regression)`,
-    "  1  error: unreadable file, bad data, or the models have different label sets",
-    "  2  bad command line",
-    `  ${COMPARE_EXIT_CODES.notBetter}  --require-better: the candidate is not significantly better`,
-    `  ${COMPARE_EXIT_CODES.regression}  --max-regression: the candidate's metric dropped by more than X (outranks ${COMPARE_EXIT_CODES.notBetter})`,
-  ].join("\n");
-}
-
 /** Runs the compare command; returns the exit code. */
 export async function compareCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, COMPARE_FLAGS);
-  if (args.switches.get("--help") === true) {
-    process.stdout.write(`${compareUsage()}\n`);
-    return 0;
-  }
-  if (args.positionals.length !== 3) throw new UsageError("compare needs two models and a data file: sluice compare <live> <candidate> <data> (--help for options)");
+  const args = parseArgs(argv, COMPARE_OPTIONS);
+  if (args.positionals.length !== 3) throw new UsageError("compare needs two models and a data file: sluice compare <live> <candidate> <data>");
   const [livePath, candidatePath, dataPath] = args.positionals;
   const gates = gatesFromArgs(args);
   const quiet = args.switches.get("--quiet") === true;

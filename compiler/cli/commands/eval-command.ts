@@ -10,18 +10,15 @@ import type { MultilabelEvaluationReport } from "../../evaluate/evaluate-multila
 import type { PolicyEvaluation } from "../../evaluate/evaluate-policy.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
-import { parseArgs, UsageError, type FlagSpec } from "../parse-args.ts";
-import { DATA_FLAGS, readData } from "../read-data.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError } from "../parse-args.ts";
+import { readData } from "../read-data.ts";
 
-export const EVAL_FLAGS: Record<string, FlagSpec> = {
-  ...DATA_FLAGS,
-  "--json": { takesValue: false, description: "print one JSON object on stdout" },
-  "--quiet": { takesValue: false, description: "no messages on stderr" },
-};
+const EVAL_OPTIONS = optionsOf("eval");
 
 /** Runs the eval command; returns the exit code. */
 export async function evalCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, EVAL_FLAGS);
+  const args = parseArgs(argv, EVAL_OPTIONS);
   if (args.positionals.length !== 2) throw new UsageError("eval needs a model and a data file: sluice eval <model> <data>");
   const [modelPath, dataPath] = args.positionals;
   const quiet = args.switches.get("--quiet") === true;

@@ -2,22 +2,20 @@
 // contributions to the logit.
 
 import { loadModelFile } from "../load-model-file.ts";
-import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
+import { SURFACE_DEFAULTS } from "../../../runtime/surface-defaults.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 
-export const EXPLAIN_FLAGS: Record<string, FlagSpec> = {
-  "--top": { takesValue: true, description: "how many top labels to explain (default 1)" },
-  "--features": { takesValue: true, description: "features listed per label (default 10)" },
-  "--json": { takesValue: false, description: "print one JSON object on stdout" },
-};
+const EXPLAIN_OPTIONS = optionsOf("explain");
 
 /** Runs the explain command; returns the exit code. */
 export async function explainCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, EXPLAIN_FLAGS);
+  const args = parseArgs(argv, EXPLAIN_OPTIONS);
   if (args.positionals.length < 2) throw new UsageError('explain needs a model and a text: sluice explain <model> "text"');
   const [modelPath, ...words] = args.positionals;
   const text = words.join(" ");
-  const top = positive(valueOf(args, "--top") ?? "1", "--top");
-  const features = positive(valueOf(args, "--features") ?? "10", "--features");
+  const top = positive(valueOf(args, "--top") ?? String(SURFACE_DEFAULTS.explainTop), "--top");
+  const features = positive(valueOf(args, "--features") ?? String(SURFACE_DEFAULTS.explainFeatures), "--features");
   const model = loadModelFile(modelPath);
   const explanation = model.explain(text, { top, features });
   if (args.switches.get("--json") === true) {

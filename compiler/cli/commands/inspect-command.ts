@@ -4,15 +4,14 @@ import { readFileSync } from "node:fs";
 import { summarizeTrainingFingerprint } from "../../read/text-fingerprints.ts";
 import { sectionSizes } from "../../compile/write-model.ts";
 import { loadModelFile } from "../load-model-file.ts";
-import { parseArgs, UsageError, type FlagSpec } from "../parse-args.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError } from "../parse-args.ts";
 
-export const INSPECT_FLAGS: Record<string, FlagSpec> = {
-  "--json": { takesValue: false, description: "print one JSON object on stdout" },
-};
+const INSPECT_OPTIONS = optionsOf("inspect");
 
 /** Runs the inspect command; returns the exit code. */
 export async function inspectCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, INSPECT_FLAGS);
+  const args = parseArgs(argv, INSPECT_OPTIONS);
   if (args.positionals.length !== 1) throw new UsageError("inspect needs one model file: sluice inspect <model>");
   const path = args.positionals[0];
   const model = loadModelFile(path);

@@ -6,25 +6,16 @@ import { basename } from "node:path";
 import { evaluateModel } from "../../evaluate/evaluate.ts";
 import { renderReport } from "../../report/render-report.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
-import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
-import { DATA_FLAGS, readData, sha256OfFile } from "../read-data.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
+import { readData, sha256OfFile } from "../read-data.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
-export const REPORT_FLAGS: Record<string, FlagSpec> = {
-  ...DATA_FLAGS,
-  "--out": { takesValue: true, description: "output HTML file (default report.html)" },
-  "--force": { takesValue: false, description: "replace the output file if it exists" },
-  "--quiet": { takesValue: false, description: "no messages on stderr" },
-  "--help": { takesValue: false, description: "show this text" },
-};
+const REPORT_OPTIONS = optionsOf("report");
 
 /** Runs the report command; returns the exit code. */
 export async function reportCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, REPORT_FLAGS);
-  if (args.switches.get("--help") === true) {
-    process.stdout.write(`${usage()}\n`);
-    return 0;
-  }
+  const args = parseArgs(argv, REPORT_OPTIONS);
   if (args.positionals.length !== 2) throw new UsageError("report needs a model and a labelled data file: sluice report <model> <data> --out report.html");
   const [modelPath, dataPath] = args.positionals;
   const out = valueOf(args, "--out") ?? "report.html";
@@ -44,9 +35,4 @@ export async function reportCommand(argv: string[]): Promise<number> {
   writeFileAtomic(out, html, { force });
   if (!quiet) process.stderr.write(`wrote ${out}: ${Buffer.byteLength(html)} bytes, ${evaluation.examples} examples, accuracy ${evaluation.accuracy.toFixed(3)}\n`);
   return 0;
-}
-
-function usage(): string {
-  const flags = Object.entries(REPORT_FLAGS).map(([flag, spec]) => `  ${flag.padEnd(14)} ${spec.description}`);
-  return ["usage: sluice report <model> <data> --out report.html [--force]", "", ...flags].join("\n");
 }

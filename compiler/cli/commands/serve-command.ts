@@ -8,32 +8,14 @@ import type { AddressInfo } from "node:net";
 import { appConfigFromEnv } from "../../../runtime/worker/app-config.ts";
 import { createApp } from "../../../runtime/worker/create-app.ts";
 import { loadModelFile } from "../load-model-file.ts";
-import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
+import { optionsOf } from "../command-table.ts";
+import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 
-export const SERVE_FLAGS: Record<string, FlagSpec> = {
-  "--port": { takesValue: true, description: "TCP port (default 8787; 0 picks a free one)" },
-  "--host": { takesValue: true, description: "address to listen on (default 127.0.0.1, loopback only)" },
-  "--help": { takesValue: false, description: "show this help" },
-};
-
-const ENVIRONMENT_HELP = [
-  "environment (the Worker's [vars] and secret names):",
-  "  API_TOKEN        bearer token required on /v1/* (unset: open)",
-  "  CORS_ORIGINS     comma-separated browser origins allowed to call /v1/*",
-  "  MAX_BODY_BYTES   largest request body (default 131072)",
-  "  MAX_TEXTS        most texts per /v1/classify call (default 100)",
-  "  MODERATE_FIELDS  body fields /v1/moderate reads (default text)",
-  "  REVIEW_BELOW     an allow below this top score becomes review (default 0.6; 0 = off)",
-];
+const SERVE_OPTIONS = optionsOf("serve");
 
 /** Runs the serve command until the process is told to stop; returns the exit code. */
 export async function serveCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, SERVE_FLAGS);
-  if (args.switches.get("--help") === true) {
-    const flags = Object.entries(SERVE_FLAGS).map(([flag, spec]) => `  ${flag.padEnd(16)} ${spec.description}`);
-    process.stdout.write(["usage: sluice serve <model> [--port N] [--host H]", "", ...flags, "", ...ENVIRONMENT_HELP, ""].join("\n"));
-    return 0;
-  }
+  const args = parseArgs(argv, SERVE_OPTIONS);
   if (args.positionals.length !== 1) throw new UsageError("serve needs one model file: sluice serve <model> [--port N] [--host H]");
   const portText = valueOf(args, "--port") ?? "8787";
   const port = Number(portText);

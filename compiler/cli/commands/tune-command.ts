@@ -1,28 +1,19 @@
-// `sluice tune <data> --time 10m [--max-bytes 256k] [--max-us 20] [--metric …] [--out sluice.config.json]`
+// `sluice tune <data> [--time 2m] [--max-bytes 256k] [--max-us 20] [--objective recall --at-precision spam=0.99] [--out sluice.config.json]`
+// The config it writes holds the reading settings (fields, label separator, format) beside the
+// build settings, so the `sluice build <data> --config …` it prints reads the data the same way.
 
-import { defaultBuildSettings, parseSize } from "../../build/build-settings.ts";
-import { parseMetric } from "../../tune/objective.ts";
+import { defaultBuildSettings, parseSetting } from "../../build/build-settings.ts";
+import { describeObjective, parseObjective } from "../../tune/objective.ts";
 import { searchedSettings } from "../../tune/search-space.ts";
 import { tune, type TrialResult } from "../../tune/tune.ts";
+import { TUNE_BUDGET_RULE } from "../../tune/tune-defaults.ts";
+import { optionsOf } from "../command-table.ts";
 import { fixed, formatTable } from "../format-table.ts";
-import { parseArgs, UsageError, valueOf, type FlagSpec } from "../parse-args.ts";
-import { DATA_FLAGS, readData } from "../read-data.ts";
+import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
+import { readData, readOptionsFrom, readSettingsOf } from "../read-data.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
-export const TUNE_FLAGS: Record<string, FlagSpec> = {
-  ...DATA_FLAGS,
-  "--time": { takesValue: true, description: "time budget: 90s, 5m, 1h (default 5m)" },
-  "--trials": { takesValue: true, description: "stop after N trials even with time left (reproducible runs)" },
-  "--max-bytes": { takesValue: true, description: "size budget of the compiled model; every trial is compiled under it" },
-  "--max-us": { takesValue: true, description: "latency budget: µs per classify call, measured in this process" },
-  "--metric": { takesValue: true, description: "macro-f1 (default), accuracy, or recall-at-precision:<label>=<p>" },
-  "--head": { takesValue: true, description: "auto (default), softmax, sigmoid or tree" },
-  "--seed": { takesValue: true, description: "seed of the search and the builds (default 1)" },
-  "--out": { takesValue: true, description: "config file for `sluice build --config` (default sluice.config.json)" },
-  "--force": { takesValue: false, description: "replace the config file if it exists" },
-  "--json": { takesValue: false, description: "print the result as one JSON object" },
-  "--quiet": { takesValue: false, description: "no progress on stderr" },
-};
+const TUNE_OPTIONS = optionsOf("tune");
 
 /** Parses "90s", "5m", "1h" or plain seconds. */
 export function parseDuration(text: string): number {
@@ -33,39 +24,42 @@ export function parseDuration(text: string): number {
 
 /** Runs the tune command; returns the exit code. */
 export async function tuneCommand(argv: string[]): Promise<number> {
-  const args = parseArgs(argv, TUNE_FLAGS);
-  if (args.positionals.length !== 1) throw new UsageError("tune needs one data file: sluice tune <data> --time 5m");
+  const args = parseArgs(argv, TUNE_OPTIONS);
+  if (args.positionals.length !== 1) throw new UsageError("tune needs one data file: sluice tune <data> [--time 2m]");
   const quiet = args.switches.get("--quiet") === true;
   const json = args.switches.get("--json") === true;
   const base = defaultBuildSettings();
   const maxBytesText = valueOf(args, "--max-bytes");
-  if (maxBytesText !== undefined) {
-    const size = parseSize(maxBytesText);
-    if (size === null) throw new UsageError(`--max-bytes: expected a size like 256k, got "${maxBytesText}"`);
-    base.maxBytes = size;
-  }
+  if (maxBytesText !== undefined) base.maxBytes = parseSetting("maxBytes", maxBytesText, "--max-bytes");
   const head = valueOf(args, "--head");
-  if (head !== undefined) {
-    if (!["auto", "softmax", "sigmoid", "tree"].includes(head)) throw new UsageError(`--head: expected auto, softmax, sigmoid or tree, got "${head}"`);
-    base.head = head as typeof base.head;
-  }
-  const seed = Number(valueOf(args, "--seed") ?? "1");
-  if (!Number.isInteger(seed) || seed < 0) throw new UsageError("--seed: expected a non-negative integer");
-  base.seed = seed;
+  if (head !== undefined) base.head = parseSetting("head", head, "--head");
+  const seedText = valueOf(args, "--seed");
+  if (seedText !== undefined) base.seed = parseSetting("seed", seedText, "--seed");
+  const seed = base.seed;
   const trialsText = valueOf(args, "--trials");
   const maxTrials = trialsText === undefined ? undefined : Number(trialsText);
   if (maxTrials !== undefined && (!Number.isInteger(maxTrials) || maxTrials < 1)) throw new UsageError("--trials: expected a positive integer");
   const maxUsText = valueOf(args, "--max-us");
   const maxMicroseconds = maxUsText === undefined ? undefined : Number(maxUsText);
   if (maxMicroseconds !== undefined && !(maxMicroseconds > 0)) throw new UsageError("--max-us: expected a positive number");
-  const metricText = valueOf(args, "--metric") ?? "macro-f1";
-  const metric = parseMetric(metricText);
+  const objectiveText = valueOf(args, "--objective") ?? "macro-f1";
+  const atPrecision = valueOf(args, "--at-precision");
+  let metric: ReturnType<typeof parseObjective>;
+  try {
+    metric = parseObjective(objectiveText, atPrecision);
+  } catch (error) {
+    throw new UsageError((error as Error).message);
+  }
+  const metricText = describeObjective(metric);
   const out = valueOf(args, "--out") ?? "sluice.config.json";
-  const { examples } = await readData(args.positionals[0], args, { textFields: ["text"], labelField: "label" }, true, quiet);
+  const readDefaults = { textFields: ["text"], labelField: "label" };
+  const read = readSettingsOf(readOptionsFrom(args, readDefaults, true));
+  const { examples } = await readData(args.positionals[0], args, readDefaults, true, quiet);
+  const timeText = valueOf(args, "--time");
   const result = await tune({
     examples,
     base,
-    timeSeconds: parseDuration(valueOf(args, "--time") ?? "5m"),
+    timeSeconds: timeText === undefined ? undefined : parseDuration(timeText),
     maxTrials,
     maxMicroseconds,
     metric,
@@ -78,15 +72,19 @@ export async function tuneCommand(argv: string[]): Promise<number> {
           ),
   });
   const config = {
+    read,
     build: searchedSettings(result.best.settings),
     tune: {
-      metric: metricText,
+      objective: objectiveText,
+      ...(metric.kind === "recall" ? { atPrecision: { [metric.label]: metric.precision } } : {}),
       score: result.best.score,
       bytes: result.best.bytes,
       microsecondsPerDoc: result.best.microsecondsPerDoc,
       baselineScore: result.baseline.score,
       trials: result.trials.length,
       folds: result.folds,
+      timeSeconds: round(result.timeSeconds),
+      defaultBuildSeconds: round(result.defaultBuildSeconds),
       seed,
     },
   };
@@ -97,7 +95,8 @@ export async function tuneCommand(argv: string[]): Promise<number> {
   }
   process.stdout.write(
     [
-      `${result.trials.length} trials (${result.folds === 1 ? "20% stratified holdout" : `${result.folds}-fold cross-validation`}); scores are of compiled models`,
+      `${result.trials.length} trials in a budget of ${Math.round(result.timeSeconds)} s${timeText === undefined ? ` (${TUNE_BUDGET_RULE}: one took ${result.defaultBuildSeconds.toFixed(2)} s)` : ""}; maximizing ${metricText}`,
+      `validation: ${result.folds === 1 ? "20% stratified holdout" : `${result.folds}-fold cross-validation`}; scores are of compiled models`,
       "",
       "Pareto front (full-size trials no other beats on score, bytes and µs/doc at once):",
       formatTable(
@@ -119,10 +118,19 @@ export async function tuneCommand(argv: string[]): Promise<number> {
       ),
       "",
       `best: trial ${result.best.id}, ${metricText} ${fixed(result.best.score)} (defaults: ${fixed(result.baseline.score)}), ${result.best.bytes} bytes, ${result.best.microsecondsPerDoc.toFixed(1)} µs/doc`,
-      `wrote ${out}; build with: sluice build ${args.positionals[0]} --config ${out}`,
+      `wrote ${out} (build and reading settings); build with: sluice build ${shellWord(args.positionals[0])} --config ${shellWord(out)}`,
     ].join("\n") + "\n",
   );
   return 0;
+}
+
+function round(seconds: number): number {
+  return Math.round(seconds * 100) / 100;
+}
+
+/** A path as one shell word (quoted when it holds anything a shell would split or expand). */
+function shellWord(text: string): string {
+  return /^[\w./@%+=:,-]+$/.test(text) ? text : `'${text.replace(/'/g, "'\\''")}'`;
 }
 
 function describeTrial(t: TrialResult) {
