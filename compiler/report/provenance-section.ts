@@ -41,7 +41,7 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
   const provenance = meta.provenance;
   const featurizer = meta.featurizer;
   const modelItems: [string, string][] = [
-    ["content id (CRC-32)", meta.version],
+    ["content id (CRC-32)", meta.contentId],
     ["file size", formatBytes(meta.bytes)],
     ["head", `${meta.head} over ${meta.labels.length} labels`],
     ["feature rows", `${formatCount(meta.rowCount)} × ${meta.rowSpace === "logits" ? `${meta.labels.length} logits (trained at ${meta.dims} dims, output layer multiplied in)` : `${meta.dims} dims`}, stored as ${meta.precision}, weighting ${meta.weighting}`],

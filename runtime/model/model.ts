@@ -50,7 +50,7 @@ export class Model implements NodeScorer {
     this.topLabelScratch = new Int32Array(header.labels.length);
     this.topProbabilityScratch = new Float64Array(header.labels.length);
     this.meta = {
-      version: parts.version,
+      contentId: parts.contentId,
       bytes: parts.byteLength,
       labels: [...header.labels],
       head: header.head,

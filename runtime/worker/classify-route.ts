@@ -44,12 +44,12 @@ export function classifyRoute(model: Model, config: AppConfig): Handler {
     if (body.text !== undefined && body.texts !== undefined) throw new ApiError("invalid-input", 'give either "text" or "texts", not both');
     if (body.texts === undefined) {
       const text = requireText(body.text, "text");
-      return c.json({ version: model.meta.version, ...classifyOne(text) });
+      return c.json({ contentId: model.meta.contentId, ...classifyOne(text) });
     }
     if (!Array.isArray(body.texts)) throw new ApiError("invalid-input", `"texts" must be an array of strings, got ${typeof body.texts}`);
     if (body.texts.length === 0) throw new ApiError("missing-text", '"texts" is empty; expected at least one text');
     if (body.texts.length > config.maxTexts) throw new ApiError("too-many-texts", `"texts" has ${body.texts.length} texts; this server takes at most ${config.maxTexts} per call`);
     const texts = body.texts.map((value: unknown, i: number) => requireText(value, `texts[${i}]`));
-    return c.json({ version: model.meta.version, results: texts.map(classifyOne) });
+    return c.json({ contentId: model.meta.contentId, results: texts.map(classifyOne) });
   };
 }

@@ -24,6 +24,6 @@ export function explainRoute(model: Model, config: AppConfig): Handler {
     const features = integerOption(body.features, "features", 1, 50, SURFACE_DEFAULTS.explainFeatures);
     const explanation = model.explain(text, { top, features });
     const decision = decideText(model, text, config.reviewBelow);
-    return c.json({ version: model.meta.version, ...explanation, decision });
+    return c.json({ contentId: model.meta.contentId, ...explanation, decision });
   };
 }

@@ -17,7 +17,7 @@ const PUBLIC_PROVENANCE_KEYS = ["tool", "builtAt", "data", "fields", "dataSha256
 export function modelRoute(model: Model): Handler {
   const meta = model.meta;
   const description = {
-    version: meta.version,
+    contentId: meta.contentId,
     bytes: meta.bytes,
     labels: meta.labels,
     head: meta.head,

@@ -24,7 +24,7 @@ export function moderateRoute(model: Model, config: AppConfig): Handler {
     const decision = decideText(model, text, config.reviewBelow);
     const { tokenCount, truncated } = model.score(text);
     return c.json({
-      version: model.meta.version,
+      contentId: model.meta.contentId,
       action: decision.action,
       label: decision.label,
       score: decision.score,

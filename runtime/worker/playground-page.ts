@@ -45,7 +45,7 @@ export function playgroundPage(model: Model, nonce: string): string {
 <body>
 <main>
 <h1>Sluice playground</h1>
-<p class="model">Model <code id="model-version">${escapeHtml(meta.version)}</code>, labels: ${labels}</p>
+<p class="model">Model <code id="model-content-id">${escapeHtml(meta.contentId)}</code>, labels: ${labels}</p>
 <form id="classify-form" data-label-count="${meta.labels.length}">
   <label for="text">Text to classify</label>
   <textarea id="text" name="text" required aria-describedby="text-hint"></textarea>

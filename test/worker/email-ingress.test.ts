@@ -56,7 +56,7 @@ function expectHeadersFor(delivery: Delivery, text: string): void {
   expect(delivery.headers["x-sluice-score"]).toBe(top.score.toFixed(4));
   expect(delivery.headers["x-sluice-moderation"]).toBe(moderation.decide(text).action);
   expect(delivery.headers["x-sluice-tokens"]).toBe(String(moderation.score(text).tokenCount));
-  expect(delivery.headers["x-sluice-model"]).toBe(`moderation=${moderation.meta.version}; routing=${routing.meta.version}`);
+  expect(delivery.headers["x-sluice-model"]).toBe(`moderation=${moderation.meta.contentId}; routing=${routing.meta.contentId}`);
 }
 
 const BILLING_SUBJECT = "Charged twice for order #A12345";

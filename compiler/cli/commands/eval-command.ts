@@ -40,7 +40,7 @@ export async function evalCommand(argv: string[]): Promise<number> {
 }
 
 function describeEvaluation(dataPath: string, model: Model, evaluation: ModelEvaluation): string[] {
-  const lines = [`${dataPath}: ${evaluation.report.examples} examples, model ${model.meta.version} (${model.meta.head} head)`];
+  const lines = [`${dataPath}: ${evaluation.report.examples} examples, model ${model.meta.contentId} (${model.meta.head} head)`];
   if (evaluation.kind === "multilabel") lines.push(...describeMultilabel(evaluation.report));
   else lines.push(...describeSingleLabel(evaluation.report));
   if (evaluation.policy) lines.push("", ...describePolicy(evaluation.policy));

@@ -24,7 +24,7 @@ export async function inspectCommand(argv: string[]): Promise<number> {
   }
   const f = meta.featurizer;
   const lines = [
-    `${path}: Sluice model ${meta.version}, ${meta.bytes} bytes`,
+    `${path}: Sluice model ${meta.contentId}, ${meta.bytes} bytes`,
     `head ${meta.head}, ${meta.labels.length} labels, dims ${meta.dims}, ${meta.rowCount} feature rows (${meta.rowSpace === "logits" ? "logit rows, output layer multiplied in" : "hidden rows + output layer"}), ${meta.precision}, weighting ${meta.weighting}, temperature ${meta.calibration.temperature.toFixed(3)}`,
     `featurizer: normalization v${f.normalization}, word span ${f.wordSpan}, char span ${f.charMin === 0 ? "off" : `${f.charMin}-${f.charMax}`}, ${f.hashBits} hash bits, seed ${f.hashSeed}, max ${f.maxTokens} tokens`,
     `labels: ${meta.labels.join(", ")}`,
