@@ -5,6 +5,7 @@ export { loadModel } from "./format/load-model.ts";
 export { Model } from "./model/model.ts";
 export type {
   ClassifyOptions,
+  DecideOptions,
   Explanation,
   FeatureContribution,
   LabelExplanation,

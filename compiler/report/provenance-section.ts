@@ -71,7 +71,7 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
       : "<p>No build settings are recorded in the model file.</p>";
   const policy = meta.policy;
   const policyItems = policy ? policy.rules.map((rule) => [rule.label, describeRule(rule)] as [string, string]) : [];
-  if (policy?.uncertainBelow !== undefined) policyItems.push(["any label", `review when the top score is below ${policy.uncertainBelow.toFixed(3)}`]);
+  if (policy?.reviewBelow !== undefined) policyItems.push(["any label", `review when the top score is below ${policy.reviewBelow.toFixed(3)}`]);
 
   return [
     `<div class="two-columns"><div><h3>Model</h3>${definitionList(modelItems)}</div><div><h3>Build</h3>${definitionList(buildItems)}</div></div>`,

@@ -5,6 +5,7 @@ import { ModelFormatError } from "../errors.ts";
 import type { FeaturizerSettings } from "../featurizer/featurizer.ts";
 import { NORMALIZATION_VERSION } from "../featurizer/normalize.ts";
 import type { Policy } from "../model/policy.ts";
+import { policyFromStored } from "./stored-policy.ts";
 
 export type HeadKind = "softmax" | "sigmoid" | "tree";
 export type Weighting = "mean" | "tfidf";
@@ -150,7 +151,7 @@ export function validateHeader(value: unknown, offset: number, version: number):
     index: { bucketBits: idx.bucketBits as number, lowBits: idx.lowBits as number },
     calibration: { temperature: temperature as number },
     thresholds: thresholds as number[] | null,
-    policy: (header.policy ?? null) as Policy | null,
+    policy: policyFromStored((header.policy ?? null) as Record<string, unknown> | null),
     metrics: (header.metrics ?? {}) as Record<string, unknown>,
     provenance: (header.provenance ?? {}) as Record<string, unknown>,
   };

@@ -26,6 +26,11 @@ export interface LabelScore {
   score: number;
 }
 
+export interface DecideOptions {
+  /** The caller's review floor: an "allow" whose top score is below this becomes "review" (default 0, off). */
+  reviewBelow?: number;
+}
+
 export interface ClassifyOptions {
   /** How many labels to return, best first (default: 1; for a sigmoid head, every label at or above its threshold). */
   top?: number;

@@ -9,7 +9,6 @@ import type { LabelScore, Model } from "../model/model.ts";
 import type { Decision } from "../model/policy.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
-import { decideText } from "./decide-text.ts";
 import { readBodyFields } from "./read-request-body.ts";
 import { integerOption, numberOption, requireText } from "./text-input.ts";
 
@@ -38,7 +37,7 @@ export function classifyRoute(model: Model, config: AppConfig): Handler {
       const labels = model.classify(text, { top, minScore });
       const { tokenCount, truncated, knownFeatures } = model.score(text);
       const result: TextResult = { labels, tokenCount, truncated, knownFeatures };
-      if (hasPolicy) result.decision = decideText(model, text, config.reviewBelow);
+      if (hasPolicy) result.decision = model.decide(text, { reviewBelow: config.reviewBelow });
       return result;
     };
     if (body.text !== undefined && body.texts !== undefined) throw new ApiError("invalid-input", 'give either "text" or "texts", not both');

@@ -6,7 +6,6 @@ import type { Handler } from "hono";
 import type { Model } from "../model/model.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
-import { decideText } from "./decide-text.ts";
 import { readBodyFields, type BodyFields } from "./read-request-body.ts";
 
 /** Carried by every /v1/moderate response: automated decisions in the review band need a person. */
@@ -21,7 +20,7 @@ export function moderateRoute(model: Model, config: AppConfig): Handler {
   return async (c) => {
     const body = await readBodyFields(c, ["json", "form", "multipart"]);
     const text = textOfFields(body, config.moderateFields);
-    const decision = decideText(model, text, config.reviewBelow);
+    const decision = model.decide(text, { reviewBelow: config.reviewBelow });
     const { tokenCount, truncated } = model.score(text);
     return c.json({
       contentId: model.meta.contentId,
