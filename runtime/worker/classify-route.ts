@@ -5,8 +5,7 @@
 // "minScore" (leave out lower scores).
 
 import type { Handler } from "hono";
-import type { LabelScore, Model } from "../model/model.ts";
-import type { Decision } from "../model/policy.ts";
+import type { Decision, LabelScore, Model } from "../index.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
 import { readBodyFields } from "./read-request-body.ts";

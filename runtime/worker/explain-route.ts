@@ -4,8 +4,7 @@
 // surface shares (runtime/surface-defaults.ts).
 
 import type { Handler } from "hono";
-import type { Model } from "../model/model.ts";
-import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
+import { SURFACE_DEFAULTS, type Model } from "../index.ts";
 import type { AppConfig } from "./app-config.ts";
 import { readBodyFields } from "./read-request-body.ts";
 import { integerOption, requireText } from "./text-input.ts";

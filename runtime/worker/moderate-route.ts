@@ -3,7 +3,7 @@
 // cases come back as "review", with a note that a person must decide them.
 
 import type { Handler } from "hono";
-import type { Model } from "../model/model.ts";
+import type { Model } from "../index.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
 import { readBodyFields, type BodyFields } from "./read-request-body.ts";

@@ -3,7 +3,7 @@
 // style and script carry the per-response CSP nonce, so the page needs no 'unsafe-inline'.
 // Results are written with textContent only, never as HTML.
 
-import type { Model } from "../model/model.ts";
+import type { Model } from "../index.ts";
 
 /**
  * The page's HTML for one response.

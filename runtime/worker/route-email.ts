@@ -10,8 +10,7 @@
 // refuses mail and only EMAIL_ROUTES names destinations: other policy actions of either
 // model ("route" rules, a routing model's "block") do not steer e-mail.
 
-import type { Model } from "../model/model.ts";
-import type { Action } from "../model/policy.ts";
+import type { Action, Model } from "../index.ts";
 import type { EmailConfig } from "./app-config.ts";
 
 /** The two models of the e-mail handler. */

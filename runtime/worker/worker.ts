@@ -8,7 +8,7 @@
 
 import moderationBytes from "../../demo-data/models/worker-contact-form.sluice";
 import routingBytes from "../../demo-data/models/worker-support-topics.sluice";
-import { loadModel } from "../format/load-model.ts";
+import { loadModel } from "../index.ts";
 import { errorResponse } from "./api-error.ts";
 import { appConfigFromEnv, ConfigError } from "./app-config.ts";
 import { createApp, type SluiceApp } from "./create-app.ts";
