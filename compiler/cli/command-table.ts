@@ -237,7 +237,7 @@ export const COMMAND_TABLE = {
       },
     ],
     environment: {
-      API_TOKEN: "bearer token required on /v1/* (unset: open)",
+      API_TOKEN: "bearer token required on /v1/* (unset: open; set but blank or unusable: refuses to start)",
       CORS_ORIGINS: "comma-separated browser origins allowed to call /v1/*",
       MAX_BODY_BYTES: "largest request body (default 131072)",
       MAX_TEXTS: "most texts per /v1/classify call (default 100)",

@@ -1,7 +1,7 @@
 // Serializes a model to the .sluice layout defined in runtime/format/format.ts (byte table in
 // runtime/format/FORMAT.md). The writer imports the same constants the loader reads.
 
-import { pack } from "msgpackr";
+import { pack, unpack } from "msgpackr";
 import { crc32 } from "../../runtime/format/crc32.ts";
 import { policyToStored } from "../../runtime/format/stored-policy.ts";
 import {
@@ -19,7 +19,7 @@ import {
   rowScaleOfCode,
   type SectionName,
 } from "../../runtime/format/format.ts";
-import type { ModelHeader } from "../../runtime/format/model-header.ts";
+import { validateHeader, type ModelHeader } from "../../runtime/format/model-header.ts";
 import { chooseBucketBits } from "../../runtime/format/slot-index.ts";
 import { rowScaleCodeCovering } from "./quantize.ts";
 
@@ -66,6 +66,7 @@ export function writeModel(contents: ModelContents): Uint8Array {
     index: { bucketBits, lowBits },
   };
   const headerBytes = pack(orderedHeader(header)) as Uint8Array;
+  checkWrittenHeader(headerBytes);
   if (headerBytes.length > MAX_HEADER_BYTES) throw new Error(`model header is ${headerBytes.length} bytes, over the ${MAX_HEADER_BYTES}-byte limit (too many labels?)`);
   const hiddenRows = header.rowSpace === "hidden";
   if (hiddenRows !== (contents.outputWeights !== null)) throw new Error(`writeModel: ${header.rowSpace} rows ${hiddenRows ? "need" : "take no"} output weights`);
@@ -109,6 +110,18 @@ export function writeModel(contents: ModelContents): Uint8Array {
   });
   view.setUint32(dataEnd, crc32(bytes, 0, dataEnd), true);
   return bytes;
+}
+
+/**
+ * The header as the loader will read it must pass the loader's own schema (one validator for
+ * both sides): a writer bug is found here, naming the field, not by a user whose model is refused.
+ */
+function checkWrittenHeader(headerBytes: Uint8Array): void {
+  try {
+    validateHeader(unpack(headerBytes), PRELUDE_BYTES, FORMAT_VERSION);
+  } catch (error) {
+    throw new Error(`writeModel: the header would be refused by the loader: ${(error as Error).message}`);
+  }
 }
 
 /** One-byte codes of row scales that came from compile/quantize.ts (each must be a code's exact scale). */

@@ -12,12 +12,12 @@
 // The answer is clamped to [0.05, 20]: an optimum outside means the data asks for an
 // extreme (all correct → T → 0; pure noise → T → ∞), and a bound is the honest answer.
 
+import { TEMPERATURE_MAX, TEMPERATURE_MIN } from "../../runtime/format/header-limits.ts";
 import { checkInteger, checkLabelIndex } from "./input-checks.ts";
 import { metricsInputError } from "./metrics-input-error.ts";
 
-/** Search range for the temperature. */
-export const TEMPERATURE_MIN = 0.05;
-export const TEMPERATURE_MAX = 20;
+/** Search range for the temperature: the range a model file may hold (the loader refuses others). */
+export { TEMPERATURE_MIN, TEMPERATURE_MAX } from "../../runtime/format/header-limits.ts";
 
 /** Result of `fitTemperature`: the temperature and mean NLL at T = 1 and at T. */
 export interface TemperatureFit {

@@ -5,6 +5,7 @@
 // loop over char codes (it runs once per character of every text), so it stays long on
 // purpose rather than being split into calls.
 
+import { charCodesToString } from "./char-codes-to-string.ts";
 import {
   APOSTROPHE,
   DIGIT,
@@ -158,7 +159,7 @@ export class Tokenizer {
     } else if (digits >= 3) {
       this.addToken(CODE, this.codeHash, -1, -1, "[code]");
     } else {
-      const name = this.withNames ? String.fromCharCode(...this.wordChars.subarray(charStart, charStart + bytes)) : "";
+      const name = this.withNames ? charCodesToString(this.wordChars, charStart, charStart + bytes) : "";
       const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
       this.addToken(WORD, hash, charStart, charStart + bytes, name);
     }
@@ -344,7 +345,7 @@ export class Tokenizer {
     } else if (digits >= 3) {
       this.addToken(CODE, this.codeHash, -1, -1, "[code]");
     } else {
-      const name = this.withNames ? String.fromCharCode(...chars.subarray(charStart, total)) : "";
+      const name = this.withNames ? charCodesToString(chars, charStart, total) : "";
       const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
       this.addToken(WORD, hash, charStart, total, name);
     }

@@ -24,6 +24,7 @@ import {
   sectionNameOf,
   type SectionName,
 } from "./format.ts";
+import { firstOutOfRange, MAX_ROW_WEIGHT, MAX_STORED_MAGNITUDE } from "./header-limits.ts";
 import { LabelTree } from "../model/label-tree.ts";
 import { validateHeader, type ModelHeader } from "./model-header.ts";
 import { Model } from "../model/model.ts";
@@ -127,7 +128,24 @@ function readDirectory(view: DataView, start: number, dataEnd: number): Map<numb
       throw new ModelFormatError("bad-section", `sections "${sectionNameOf(previous.id)}" and "${sectionNameOf(ordered[i].id)}" overlap`, ordered[i].offset);
     }
   }
+  checkNoStrayBytes(view, ordered, alignUp(entriesEnd), dataEnd);
   return entries;
+}
+
+/**
+ * The sections tile the data area: between them only the zero padding to the next multiple
+ * of 8, and the last one ends at the checksum. Bytes nobody reads could hide anything (and
+ * would make two files with the same model differ), so they are refused.
+ */
+function checkNoStrayBytes(view: DataView, ordered: SectionEntry[], firstOffset: number, dataEnd: number): void {
+  let cursor = firstOffset;
+  for (const entry of ordered) {
+    if (entry.offset !== cursor) throw new ModelFormatError("bad-section", `${entry.offset - cursor} stray bytes before section "${sectionNameOf(entry.id)}" (sections follow each other, 8-aligned)`, cursor);
+    const end = entry.offset + entry.byteLength;
+    cursor = Math.min(alignUp(end), dataEnd);
+    for (let at = end; at < cursor; at++) if (view.getUint8(at) !== 0) throw new ModelFormatError("bad-section", "padding after a section is not zero", at);
+  }
+  if (cursor !== dataEnd) throw new ModelFormatError("bad-section", `${dataEnd - cursor} stray bytes between the last section and the checksum`, cursor);
 }
 
 type Parts = Omit<ConstructorParameters<typeof Model>[0], "contentId" | "byteLength">;
@@ -173,13 +191,20 @@ function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number,
     const treeProblem = LabelTree.check(tree, header.labels.length);
     if (treeProblem) throw new ModelFormatError("bad-section", `label tree: ${treeProblem}`);
   }
-  // Decoded scales and weights are finite by construction (a code table, u16 × a checked step).
-  const storedAsFloats = [["rowScales", compact ? null : rowScales], ["rowWeights", compact ? null : rowWeights], ["outputScales", outputScales], ["outputBias", outputBias]] as const;
-  for (const [name, values] of storedAsFloats) {
-    if (values && !allFinite(values)) throw new ModelFormatError("bad-section", `section "${name}" holds a value that is not a finite number`);
-  }
-  if (!int8 && (!allFinite(rows as Float32Array) || (outputWeights !== null && !allFinite(outputWeights as Float32Array)))) {
-    throw new ModelFormatError("bad-section", "a float32 weight section holds a value that is not a finite number");
+  // Every stored float within the ranges the compiler writes (header-limits.ts), so scores
+  // stay finite. Decoded scales and weights are in range by construction (a code table, u16 ×
+  // a checked step). Scales and weights must not be negative: a weight sum could then cancel.
+  const storedAsFloats: [string, Float32Array | null, number, number][] = [
+    ["rowScales", compact ? null : rowScales, 0, MAX_STORED_MAGNITUDE],
+    ["rowWeights", compact ? null : rowWeights, 0, MAX_ROW_WEIGHT],
+    ["outputScales", outputScales, 0, MAX_STORED_MAGNITUDE],
+    ["outputBias", outputBias, -MAX_STORED_MAGNITUDE, MAX_STORED_MAGNITUDE],
+    ["rows", int8 ? null : (rows as Float32Array), -MAX_STORED_MAGNITUDE, MAX_STORED_MAGNITUDE],
+    ["outputWeights", int8 ? null : (outputWeights as Float32Array | null), -MAX_STORED_MAGNITUDE, MAX_STORED_MAGNITUDE],
+  ];
+  for (const [name, values, min, max] of storedAsFloats) {
+    const at = values === null ? -1 : firstOutOfRange(values, min, max);
+    if (at >= 0) throw new ModelFormatError("bad-section", `section "${name}" value ${at} is ${(values as Float32Array)[at]}, outside [${min}, ${max}]`);
   }
   return {
     header,
@@ -226,10 +251,6 @@ function decodeWeights(steps: Uint16Array, step: number): Float32Array {
   return weights;
 }
 
-function allFinite(values: Float32Array): boolean {
-  for (let i = 0; i < values.length; i++) if (!Number.isFinite(values[i])) return false;
-  return true;
-}
 
 function hex(value: number): string {
   return `0x${value.toString(16).padStart(8, "0")}`;

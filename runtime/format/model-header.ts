@@ -1,11 +1,16 @@
-// The MessagePack header of a model file: what it holds and how the loader checks it.
-// Unknown keys are ignored (so a newer writer may add provenance); known keys must be valid.
+// The MessagePack header of a model file: what it holds and how it is checked. This is the
+// one statement of the header's schema: the loader refuses any header it rejects, and the
+// writer (compiler/compile/write-model.ts) runs it on every header it writes. Unknown keys
+// are ignored (so a newer writer may add provenance); known keys must be valid, and every
+// number must lie in the range the compiler can produce (header-limits.ts).
 
 import { ModelFormatError } from "../errors.ts";
 import type { FeaturizerSettings } from "../featurizer/featurizer.ts";
 import { NORMALIZATION_VERSION } from "../featurizer/normalize.ts";
 import type { Policy } from "../model/policy.ts";
-import { policyFromStored } from "./stored-policy.ts";
+import { isUnitInterval, isValidTemperature, isValidWeightStep, MAX_WEIGHT_STEP, MIN_WEIGHT_STEP, TEMPERATURE_MAX, TEMPERATURE_MIN } from "./header-limits.ts";
+import { metadataProblem } from "./validate-metadata.ts";
+import { isPlainMap, validatePolicy } from "./validate-policy.ts";
 
 export type HeadKind = "softmax" | "sigmoid" | "tree";
 export type Weighting = "mean" | "tfidf";
@@ -62,7 +67,7 @@ export function validateHeader(value: unknown, offset: number, version: number):
   const fail = (field: string, expected: string): never => {
     throw new ModelFormatError("bad-header", `header field "${field}": expected ${expected}`, offset);
   };
-  if (!isRecord(value)) return fail("(root)", "a map");
+  if (!isPlainMap(value)) return fail("(root)", "a map");
   const header = value as Record<string, unknown>;
   const labels = header.labels;
   if (!Array.isArray(labels) || labels.length < 1 || labels.length > MAX_LABELS || !labels.every((l) => typeof l === "string")) {
@@ -82,7 +87,7 @@ export function validateHeader(value: unknown, offset: number, version: number):
   if (rowSpace !== "hidden" && rowSpace !== "logits") fail("rowSpace", '"hidden" or "logits"');
   if (rowSpace === "logits" && head === "tree") fail("rowSpace", '"hidden" for a tree head');
   const featurizer = header.featurizer;
-  if (!isRecord(featurizer)) return fail("featurizer", "a map");
+  if (!isPlainMap(featurizer)) return fail("featurizer", "a map");
   const f = featurizer as Record<string, unknown>;
   f.normalization === NORMALIZATION_VERSION || fail("featurizer.normalization", `version ${NORMALIZATION_VERSION} (this runtime's rules)`);
   checkInteger(f.wordSpan, 1, 6) || fail("featurizer.wordSpan", "an integer from 1 to 6");
@@ -98,37 +103,43 @@ export function validateHeader(value: unknown, offset: number, version: number):
   if (precision !== "int8" && precision !== "float32") fail("precision", '"int8" or "float32"');
   let quantization: ModelHeader["quantization"] = precision === "int8" ? { scheme: "symmetric-per-row", bits: 8 } : null;
   if (version >= 2 && precision === "int8") {
-    if (!isRecord(header.quantization)) return fail("quantization", "a map for an int8 model");
+    if (!isPlainMap(header.quantization)) return fail("quantization", "a map for an int8 model");
     const q = header.quantization as Record<string, unknown>;
     q.scheme === "symmetric-per-row" || fail("quantization.scheme", '"symmetric-per-row"');
     q.bits === 8 || fail("quantization.bits", "8");
     q.rowScaleCodes === "log2-eighths" || fail("quantization.rowScaleCodes", '"log2-eighths"');
     const step = q.weightStep ?? null;
-    if (weighting === "tfidf" ? !(typeof step === "number" && step > 0 && Number.isFinite(step)) : step !== null) {
-      fail("quantization.weightStep", weighting === "tfidf" ? "a positive number for TF-IDF weights" : "nil without TF-IDF weights");
+    // A u16 step × weightStep must stay a sane weight: 1e300 would overflow to Infinity, 1e-300 to 0.
+    if (weighting === "tfidf" ? !isValidWeightStep(step) : step !== null) {
+      fail("quantization.weightStep", weighting === "tfidf" ? `a number from ${MIN_WEIGHT_STEP} to ${MAX_WEIGHT_STEP} for TF-IDF weights` : "nil without TF-IDF weights");
     }
     quantization = { scheme: "symmetric-per-row", bits: 8, rowScaleCodes: "log2-eighths", weightStep: step as number | null };
   }
   const index = header.index;
-  if (!isRecord(index)) return fail("index", "a map");
+  if (!isPlainMap(index)) return fail("index", "a map");
   const idx = index as Record<string, unknown>;
   checkInteger(idx.bucketBits, 0, 30) || fail("index.bucketBits", "an integer from 0 to 30");
   checkInteger(idx.lowBits, 0, 16) || fail("index.lowBits", "an integer from 0 to 16");
   (idx.bucketBits as number) + (idx.lowBits as number) === f.hashBits || fail("index", "bucketBits + lowBits = featurizer.hashBits");
   if ((idx.bucketBits as number) > 24) fail("index.bucketBits", "at most 24");
   const calibration = header.calibration;
-  if (!isRecord(calibration)) return fail("calibration", "a map");
+  if (!isPlainMap(calibration)) return fail("calibration", "a map");
   const temperature = (calibration as Record<string, unknown>).temperature;
-  if (typeof temperature !== "number" || !(temperature > 0) || !Number.isFinite(temperature)) fail("calibration.temperature", "a positive number");
+  // 5e-324 would turn every logit into Infinity and every score into NaN.
+  if (!isValidTemperature(temperature)) fail("calibration.temperature", `a number from ${TEMPERATURE_MIN} to ${TEMPERATURE_MAX}`);
   const thresholds = header.thresholds ?? null;
   if (thresholds !== null) {
-    if (!Array.isArray(thresholds) || thresholds.length !== labelCount || !thresholds.every((t) => typeof t === "number" && t >= 0 && t <= 1)) {
+    if (!Array.isArray(thresholds) || thresholds.length !== labelCount || !thresholds.every(isUnitInterval)) {
       fail("thresholds", `null or ${labelCount} numbers in [0, 1]`);
     }
   }
-  if (header.policy !== null && header.policy !== undefined && !isRecord(header.policy)) fail("policy", "a map or nil");
-  if (header.metrics !== undefined && !isRecord(header.metrics)) fail("metrics", "a map");
-  if (header.provenance !== undefined && !isRecord(header.provenance)) fail("provenance", "a map");
+  const policy = validatePolicy(header.policy, labels as string[], fail);
+  for (const field of ["metrics", "provenance"] as const) {
+    if (header[field] === undefined) continue;
+    if (!isPlainMap(header[field])) fail(field, "a map");
+    const problem = metadataProblem(header[field], field);
+    if (problem !== null) fail(field, `JSON-like data (${problem})`);
+  }
   return {
     labels: labels as string[],
     head: head as HeadKind,
@@ -151,15 +162,12 @@ export function validateHeader(value: unknown, offset: number, version: number):
     index: { bucketBits: idx.bucketBits as number, lowBits: idx.lowBits as number },
     calibration: { temperature: temperature as number },
     thresholds: thresholds as number[] | null,
-    policy: policyFromStored((header.policy ?? null) as Record<string, unknown> | null),
+    policy: policy as Policy | null,
     metrics: (header.metrics ?? {}) as Record<string, unknown>,
     provenance: (header.provenance ?? {}) as Record<string, unknown>,
   };
 }
 
-function isRecord(value: unknown): boolean {
-  return typeof value === "object" && value !== null && !Array.isArray(value) && !(value instanceof Uint8Array);
-}
 
 function checkInteger(value: unknown, min: number, max: number): boolean {
   return typeof value === "number" && Number.isInteger(value) && value >= min && value <= max;

@@ -11,7 +11,7 @@ import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
 import { InputError } from "../errors.ts";
 import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featurizer } from "../featurizer/featurizer.ts";
 import { explainLabels } from "./explain-labels.ts";
-import { decideFromScores, type Decision } from "./policy.ts";
+import { decideFromScores, failClosed, type Decision } from "./policy.ts";
 import { LabelTree, type NodeScorer } from "./label-tree.ts";
 import type { ClassifyOptions, DecideOptions, Explanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
 import { rankLabels } from "./rank-labels.ts";
@@ -116,14 +116,25 @@ export class Model implements NodeScorer {
    * The decision of the model's policy for a text, with reasons (rules that fired and
    * the features that pushed the label). Without a policy the action is "allow", or "review"
    * below `options.reviewBelow`, the caller's review floor (the higher of it and the policy's
-   * own floor applies; it never blocks).
+   * own floor applies; it never blocks). Never throws for a string: a non-finite score or any
+   * error on the way gives "review" with `fault` set (see failClosed).
    * @example model.decide("WIN A FREE PRIZE") // { action: "review", label: "spam", score: 0.81, reasons: [...] }
    * @example model.decide("hello?", { reviewBelow: 0.6 }) // { action: "review", label: "ok", score: 0.52, reasons: [...] }
    */
   decide(text: string, options: DecideOptions = {}): Decision {
     checkText(text);
+    // Fail closed: whatever goes wrong past the caller's own mistake (not a string) is "review".
+    try {
+      return this.decideChecked(text, options);
+    } catch (error) {
+      return failClosed("decision-error", error instanceof Error ? `${error.name}: ${error.message}` : String(error));
+    }
+  }
+
+  private decideChecked(text: string, options: DecideOptions): Decision {
     const scores = this.scoreText(text);
     const decision = decideFromScores(this.parts.header.policy, this.labels, scores, options.reviewBelow ?? 0);
+    if (decision.fault !== undefined) return decision;
     if (this.lastKnown === 0) decision.reasons.push("no known feature in the text: the score is the model's prior");
     if (decision.action !== "allow" || this.parts.header.policy === null) {
       const explanation = explainLabels(this, text, [this.labels.indexOf(decision.label)], 3);

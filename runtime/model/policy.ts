@@ -38,6 +38,30 @@ export interface Decision {
   routeTo?: string;
   /** Plain-language reasons: which rule fired and, from `model.decide`, the features that drove it. */
   reasons: string[];
+  /** Set when the decision failed closed: something was broken, so a person must look (action "review"). */
+  fault?: DecisionFault;
+}
+
+/** Why a decision failed closed. */
+export const DECISION_FAULT_CODES = {
+  "non-finite-score": "a label score was NaN or infinite, so no threshold comparison can be trusted",
+  "decision-error": "an error was thrown while scoring, applying the policy or explaining",
+} as const;
+
+export type DecisionFaultCode = keyof typeof DECISION_FAULT_CODES;
+
+export interface DecisionFault {
+  code: DecisionFaultCode;
+  message: string;
+}
+
+/**
+ * The decision when deciding went wrong: always "review", never "allow" (NaN fails every
+ * threshold comparison, so a broken score would otherwise let everything through).
+ * @example failClosed("decision-error", "RangeError: …") // { action: "review", label: "", score: 0, fault: { code: "decision-error", … } }
+ */
+export function failClosed(code: DecisionFaultCode, message: string, label = "", score = 0): Decision {
+  return { action: "review", label, score, reasons: [`failed closed (${code}): ${message}; a person must decide`], fault: { code, message } };
 }
 
 const SEVERITY: Record<Action, number> = { allow: 0, route: 1, review: 2, block: 3 };
@@ -50,6 +74,9 @@ const SEVERITY: Record<Action, number> = { allow: 0, route: 1, review: 2, block:
  * // → { action: "review", label: "spam", score: 0.7, reasons: ["spam 0.700 is in the review band [0.600, 0.980)"] }
  */
 export function decideFromScores(policy: Policy | null, labels: readonly string[], scores: ArrayLike<number>, reviewBelow = 0): Decision {
+  for (let k = 0; k < labels.length; k++) {
+    if (!Number.isFinite(scores[k])) return failClosed("non-finite-score", `the score of ${labels[k]} is ${scores[k]}`, labels[k]);
+  }
   let top = 0;
   for (let k = 1; k < labels.length; k++) if (scores[k] > scores[top]) top = k;
   let decision: Decision = { action: "allow", label: labels[top], score: scores[top], reasons: [] };

@@ -104,7 +104,7 @@ export function appConfigFromEnv(env: Readonly<Record<string, unknown>>): AppCon
   const moderateFields = list("MODERATE_FIELDS");
   if (moderateFields !== undefined && moderateFields.length === 0) throw new ConfigError("MODERATE_FIELDS: expected at least one field name");
   return {
-    apiToken: text("API_TOKEN") ?? null,
+    apiToken: apiToken(env.API_TOKEN),
     corsOrigins: list("CORS_ORIGINS") ?? defaults.corsOrigins,
     maxBodyBytes: number("MAX_BODY_BYTES", 1, 64 * 1024 * 1024, true) ?? defaults.maxBodyBytes,
     maxTexts: number("MAX_TEXTS", 1, 10_000, true) ?? defaults.maxTexts,
@@ -117,6 +117,25 @@ export function appConfigFromEnv(env: Readonly<Record<string, unknown>>): AppCon
       minScore: number("EMAIL_MIN_SCORE", 0, 1, false) ?? defaults.email.minScore,
     },
   };
+}
+
+// RFC 6750 §2.1 b64token: the only characters a bearer credential can carry.
+const B64TOKEN = /^[A-Za-z0-9\-._~+/]+=*$/;
+
+/**
+ * API_TOKEN: unset (undefined or null) means an open API; anything else must be a usable
+ * token. A blank value or one no Authorization header can carry (spaces inside, non-ASCII)
+ * is a misconfiguration, not "no token": a typo in a secret must not silently open the API.
+ */
+function apiToken(value: unknown): string | null {
+  if (value === undefined || value === null) return null;
+  if (typeof value !== "string") throw new ConfigError(`API_TOKEN: expected a string, got ${typeof value}`);
+  const token = value.trim();
+  if (token === "") throw new ConfigError("API_TOKEN: it is set but blank; set a real token, or remove the variable to run an open API");
+  if (!B64TOKEN.test(token)) {
+    throw new ConfigError("API_TOKEN: it holds characters a bearer token cannot carry (RFC 6750 allows A-Z a-z 0-9 - . _ ~ + / and trailing =), so no request could match it");
+  }
+  return token;
 }
 
 /** EMAIL_ROUTES: a JSON object (or a TOML table) mapping topic → address. */

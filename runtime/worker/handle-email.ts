@@ -26,7 +26,7 @@ export async function handleEmail(models: EmailModels, config: EmailConfig, mess
     outcome = unclassified(config, `the message has ${message.rawSize} bytes, more than the ${MAX_PARSED_BYTES} this handler parses`);
   } else {
     const text = await readMessageText(message);
-    outcome = text === "" ? unclassified(config, "the message has no readable text") : routeEmail(models, config, text);
+    outcome = text === "" ? unclassified(config, "the message has no readable text") : routeOrFallback(models, config, text);
   }
   if (outcome.kind === "reject") {
     await message.setReject(outcome.reason);
@@ -66,6 +66,16 @@ async function readMessageText(message: IncomingEmailMessage): Promise<string> {
   } catch (error) {
     console.error("sluice: the message cannot be parsed as MIME", error);
     return "";
+  }
+}
+
+/** routeEmail, failing closed: an error while deciding sends the message to a person, never on to its topic. */
+function routeOrFallback(models: EmailModels, config: EmailConfig, text: string): EmailOutcome {
+  try {
+    return routeEmail(models, config, text);
+  } catch (error) {
+    console.error("sluice: deciding the message failed; it goes to the fallback address", error);
+    return unclassified(config, "deciding the message failed (see the log)");
   }
 }
 

@@ -29,6 +29,7 @@ export function moderateRoute(model: Model, config: AppConfig): Handler {
       score: decision.score,
       ...(decision.routeTo !== undefined ? { routeTo: decision.routeTo } : {}),
       reasons: decision.reasons,
+      ...(decision.fault !== undefined ? { fault: decision.fault } : {}),
       humanReview: { required: decision.action === "review", note: HUMAN_REVIEW_NOTE },
       tokenCount,
       truncated,

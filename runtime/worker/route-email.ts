@@ -54,7 +54,8 @@ export function routeEmail(models: EmailModels, config: EmailConfig, text: strin
   const [top] = models.routing.classify(text, { top: 1 });
   const routed = { ...base, topic: { label: top.label, score: top.score } };
   const threshold = thresholdFor(models.routing, top.label, config.minScore);
-  if (top.score < threshold) return toFallback(config, routed, `top topic ${top.label} ${top.score.toFixed(3)} is below its threshold ${threshold.toFixed(3)}`);
+  // Written as "not at least" so a NaN score (which fails every comparison) goes to a person.
+  if (!(top.score >= threshold)) return toFallback(config, routed, `top topic ${top.label} ${top.score.toFixed(3)} is below its threshold ${threshold.toFixed(3)}`);
   const route = config.routes[top.label];
   if (route === undefined) return toFallback(config, routed, `no route is configured for ${top.label}`);
   return { ...routed, kind: "forward", to: route, fallback: false, reason: `routed as ${top.label}` };

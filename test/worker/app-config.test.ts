@@ -38,6 +38,21 @@ describe("appConfigFromEnv", () => {
   });
 
   it("treats an empty string as unset", () => {
-    expect(appConfigFromEnv({ API_TOKEN: "", CORS_ORIGINS: "" })).toMatchObject({ apiToken: null, corsOrigins: [] });
+    expect(appConfigFromEnv({ CORS_ORIGINS: "" })).toMatchObject({ apiToken: null, corsOrigins: [] });
+  });
+
+  it("leaves the API open only when API_TOKEN is unset", () => {
+    expect(appConfigFromEnv({}).apiToken).toBeNull();
+    expect(appConfigFromEnv({ API_TOKEN: " s3cret-token " }).apiToken).toBe("s3cret-token");
+  });
+
+  it.each([
+    ["empty", ""],
+    ["made only of spaces", "   "],
+    ["holding a space inside", "two words"],
+    ["holding a non-ASCII letter", "tökén"],
+  ])("refuses an API_TOKEN that is %s", (_name, value) => {
+    // RFC 6750 §2.1: b64token = 1*( ALPHA / DIGIT / "-" / "." / "_" / "~" / "+" / "/" ) *"=".
+    expect(() => appConfigFromEnv({ API_TOKEN: value })).toThrow(/^API_TOKEN: /);
   });
 });

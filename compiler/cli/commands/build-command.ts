@@ -12,6 +12,7 @@ import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256OfFile, type FieldDefaults } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { createReadReport } from "../../read/index.ts";
+import { checkInputFile, checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
@@ -29,12 +30,17 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const say = (message: string) => {
     if (!quiet) process.stderr.write(`${message}\n`);
   };
-  const { settings, read } = settingsFromArgs(args);
   const out = valueOf(args, "--out") ?? "model.sluice";
   const force = args.switches.get("--force") === true;
+  const validationPath = valueOf(args, "--validation");
+  // Before any reading or training: a bad path must not cost a whole training run.
+  checkInputFile(dataPath, "data file");
+  checkInputFile(validationPath, "validation file");
+  checkInputFile(valueOf(args, "--config"), "config file");
+  checkOutputPath(out, { inputs: [dataPath, validationPath, valueOf(args, "--config")], force });
+  const { settings, read } = settingsFromArgs(args);
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
-  const validationPath = valueOf(args, "--validation");
   const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
   const common = {
     validation,

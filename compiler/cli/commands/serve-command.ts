@@ -4,6 +4,7 @@
 // Listens on loopback unless --host says otherwise; stops on SIGINT or SIGTERM.
 
 import { serve } from "@hono/node-server";
+import type { Http2Bindings, HttpBindings } from "@hono/node-server";
 import type { AddressInfo } from "node:net";
 import { appConfigFromEnv } from "../../../runtime/worker/app-config.ts";
 import { createApp } from "../../../runtime/worker/create-app.ts";
@@ -24,7 +25,7 @@ export async function serveCommand(argv: string[]): Promise<number> {
   const model = loadModelFile(args.positionals[0]);
   const app = createApp(model, appConfigFromEnv(process.env));
   const server = await new Promise<ReturnType<typeof serve>>((resolve, reject) => {
-    const started = serve({ fetch: app.fetch, port, hostname: host }, () => resolve(started));
+    const started = serve({ fetch: closingAfterUnreadBodies(app.fetch), port, hostname: host }, () => resolve(started));
     started.once("error", (error: NodeJS.ErrnoException) => reject(new Error(`cannot listen on ${host}:${port}: ${error.code ?? error.message}`)));
   });
   const address = server.address() as AddressInfo;
@@ -42,4 +43,22 @@ export async function serveCommand(argv: string[]): Promise<number> {
     process.once("SIGTERM", stop);
   });
   return 0;
+}
+
+type FetchHandler = (request: Request, env: HttpBindings | Http2Bindings) => Response | Promise<Response>;
+
+/**
+ * A request answered before its body was read (a 413 for its Content-Length, a 401, a 415)
+ * leaves body bytes in the connection. @hono/node-server then drains them for at most 500 ms
+ * or 64 MiB and otherwise destroys the socket, so a keep-alive client's next request on it
+ * would fail with a reset. Such answers say "Connection: close" instead (RFC 9112 §9.6: a
+ * server that does not read the whole body closes the connection), and the client reconnects.
+ */
+function closingAfterUnreadBodies(fetch: (request: Request, env: unknown) => Response | Promise<Response>): FetchHandler {
+  return async (request, env) => {
+    const response = await fetch(request, env);
+    const { incoming, outgoing } = env;
+    if (!incoming.readableEnded && !outgoing.headersSent) outgoing.setHeader("connection", "close");
+    return response;
+  };
 }

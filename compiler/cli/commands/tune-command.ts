@@ -11,6 +11,7 @@ import { optionsOf } from "../command-table.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 import { readData, readOptionsFrom, readSettingsOf } from "../read-data.ts";
+import { checkInputFile, checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const TUNE_OPTIONS = optionsOf("tune");
@@ -52,6 +53,8 @@ export async function tuneCommand(argv: string[]): Promise<number> {
   }
   const metricText = describeObjective(metric);
   const out = valueOf(args, "--out") ?? "sluice.config.json";
+  checkInputFile(args.positionals[0], "data file");
+  checkOutputPath(out, { inputs: [args.positionals[0]], force: args.switches.get("--force") === true });
   const readDefaults = { textFields: ["text"], labelField: "label" };
   const read = readSettingsOf(readOptionsFrom(args, readDefaults, true));
   const { examples } = await readData(args.positionals[0], args, readDefaults, true, quiet);

@@ -4,9 +4,9 @@
 // practice of decoding every truncated prefix of a valid input.
 import { readFileSync } from "node:fs";
 import fc from "fast-check";
-import { pack, unpack } from "msgpackr";
 import { describe, expect, it } from "vitest";
-import { crc32, loadModel, ModelFormatError } from "../../../runtime/index.ts";
+import { loadModel, ModelFormatError } from "../../../runtime/index.ts";
+import { headerOf, withChecksum, withHeader } from "./model-mutations.ts";
 
 const goldenFiles: [string, Uint8Array][] = [
   ["version 1, hidden rows", new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny.sluice", import.meta.url)))],
@@ -24,38 +24,8 @@ function expectRefused(bytes: Uint8Array, code?: string): void {
   if (code) expect((thrown as ModelFormatError).code).toBe(code);
 }
 
-/** Recomputes the trailer so a change reaches the checks behind the checksum. */
-function withChecksum(bytes: Uint8Array): Uint8Array {
-  const copy = bytes.slice();
-  new DataView(copy.buffer).setUint32(copy.length - 4, crc32(copy, 0, copy.length - 4), true);
-  return copy;
-}
-
-/** The golden file with its header replaced by `header`; sections move by a multiple of 8. */
-function withHeader(golden: Uint8Array, header: Record<string, unknown>): Uint8Array {
-  const view = new DataView(golden.buffer, golden.byteOffset, golden.byteLength);
-  const oldDirectory = (16 + view.getUint32(12, true) + 7) & ~7;
-  const packed = pack(header) as Uint8Array;
-  const newDirectory = (16 + packed.length + 7) & ~7;
-  const shift = newDirectory - oldDirectory; // both are multiples of 8
-  const body = golden.subarray(oldDirectory, golden.length - 4);
-  const out = new Uint8Array(newDirectory + body.length + 4);
-  out.set(golden.subarray(0, 12));
-  const outView = new DataView(out.buffer);
-  outView.setUint32(12, packed.length, true);
-  out.set(packed, 16);
-  out.set(body, newDirectory);
-  const count = outView.getUint32(newDirectory, true);
-  for (let i = 0; i < count; i++) {
-    const at = newDirectory + 8 + 16 * i;
-    outView.setUint32(at + 8, outView.getUint32(at + 8, true) + shift, true);
-  }
-  return withChecksum(out);
-}
-
 function goldenHeader(golden: Uint8Array): Record<string, any> {
-  const view = new DataView(golden.buffer, golden.byteOffset, golden.byteLength);
-  return unpack(golden.subarray(16, 16 + view.getUint32(12, true))) as Record<string, any>;
+  return headerOf(golden);
 }
 
 describe.each(goldenFiles)("loadModel on hostile bytes (%s)", (_name, golden) => {

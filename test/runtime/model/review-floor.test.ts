@@ -4,7 +4,8 @@
 // Files store the model's floor as `uncertainBelow`, its first name (FORMAT.md).
 
 import { describe, expect, it } from "vitest";
-import { policyFromStored, policyToStored } from "../../../runtime/format/stored-policy.ts";
+import { policyToStored } from "../../../runtime/format/stored-policy.ts";
+import { validatePolicy } from "../../../runtime/format/validate-policy.ts";
 import { decideFromScores, type Policy } from "../../../runtime/model/policy.ts";
 
 const LABELS = ["ok", "spam"];
@@ -33,8 +34,11 @@ describe("the review floor", () => {
   it("is stored under the key uncertainBelow and read back as reviewBelow", () => {
     const policy: Policy = { rules: [SPAM_RULE], reviewBelow: 0.6 };
     expect(policyToStored(policy)).toEqual({ rules: [SPAM_RULE], uncertainBelow: 0.6 });
-    expect(policyFromStored({ rules: [SPAM_RULE], uncertainBelow: 0.6 })).toEqual(policy);
-    expect(policyFromStored({ rules: [SPAM_RULE] })).toEqual({ rules: [SPAM_RULE] });
+    const fail = (field: string, expected: string): never => {
+      throw new Error(`${field}: expected ${expected}`);
+    };
+    expect(validatePolicy({ rules: [SPAM_RULE], uncertainBelow: 0.6 }, LABELS, fail)).toEqual(policy);
+    expect(validatePolicy({ rules: [SPAM_RULE] }, LABELS, fail)).toEqual({ rules: [SPAM_RULE] });
     expect(policyToStored(null)).toBeNull();
   });
 });
