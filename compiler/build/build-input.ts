@@ -20,6 +20,8 @@ export interface BuildInput {
   dataSha256?: string;
   dataName?: string;
   onProgress?: (stage: string, progress: TrainProgress) => void;
+  /** Called as each stage after training starts ("compile", "calibrate", "verify"), so a caller can show it. */
+  onStage?: (stage: "compile" | "calibrate" | "verify") => void;
   onMessage?: (message: string) => void;
   /** Which data fields held the text and the label(s), and the separator of several labels in
    * one cell (recorded so eval, classify, compare and report read data the same way). */

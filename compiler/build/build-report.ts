@@ -1,5 +1,6 @@
 // What a build reports: sizes, qualities of the draft and of what ships, where the time went.
 
+import type { CalibrationReport } from "../compile/calibrate.ts";
 import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { PolicyReport } from "../compile/choose-policy.ts";
 import type { LeakFindings } from "../read/text-fingerprints.ts";
@@ -38,7 +39,8 @@ export interface BuildReport {
   draft: Quality & { bytes: number };
   compiled: Quality;
   validation: Quality & { microF1: number; logLoss: number; ece: number };
-  calibration: { temperature: number; eceBefore: number; eceAfter: number; nllBefore: number; nllAfter: number } | null;
+  /** Temperature scaling on validation: what was kept, or why it was skipped; null without validation or with --no-calibrate. */
+  calibration: CalibrationReport | null;
   policy: PolicyReport | null;
   leaks: LeakFindings | null;
   sections: Record<string, number>;

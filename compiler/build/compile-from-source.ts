@@ -50,6 +50,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   clock.lap("prepare");
   const trained = await source.train(draft, trainSettings, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
   clock.lap("train");
+  input.onStage?.("compile");
 
   const header = baseHeader(input, head, labels, featurizerSettings, source.count);
   if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
@@ -73,6 +74,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   }
   let compiled = await compile(keep);
   clock.lap("compile");
+  input.onStage?.("calibrate");
 
   // Calibrate and choose the policy on the validation split, with the compiled model.
   let calibration: BuildReport["calibration"] = null;
@@ -95,6 +97,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     compiled.contents.header.thresholds = thresholds;
   }
   clock.lap("calibrate");
+  input.onStage?.("verify");
 
   // Measure what ships, record it in the header, write the final bytes.
   const measure = (contents: typeof compiled.contents) => {

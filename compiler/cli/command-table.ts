@@ -122,7 +122,8 @@ export const COMMAND_TABLE = {
         options: {
           "--validation": { value: "file", description: "validation data file (instead of --holdout)" },
           "--config": { value: "file", description: "settings file (sluice.config.json, as `sluice tune` writes it); flags override it" },
-          "--on-disk": { default: "above 256 MiB", description: "stream the data through shards on disk (bounded memory, one thread)" },
+          "--on-disk": { default: "when an in-memory build would exceed --max-memory", description: "stream the data through shards on disk (bounded memory, one thread)" },
+          "--max-memory": { value: "SIZE", default: "2 × the data file + 300 MB", description: "memory budget: data whose in-memory build is projected (examples × tokens, from a sample) to need more is built on disk" },
           "--out": { value: "file", default: "model.sluice", description: "output model file" },
           "--force": FORCE,
           "--json": json("the build report as one JSON object"),

@@ -51,7 +51,10 @@ export async function readData(path: string, args: ParsedArgs, defaults: FieldDe
 /** One line (plus samples) about what was read and what was left out, on stderr. */
 export function describeReadReport(report: ReadReport): void {
   const parts = [`${report.examples} examples`];
-  if (report.skipped > 0) parts.push(`${report.skipped} bad rows skipped (${Object.entries(report.skippedByReason).map(([r, n]) => `${r}: ${n}`).join(", ")})`);
+  if (report.skipped > 0) {
+    const lines = report.skippedLines > report.skipped ? `, ${report.skippedLines} lines of the file` : "";
+    parts.push(`${report.skipped} bad ${report.skipped === 1 ? "row" : "rows"} skipped (${Object.entries(report.skippedByReason).map(([r, n]) => `${r}: ${n}`).join(", ")}${lines})`);
+  }
   if (report.emptyText > 0) parts.push(`${report.emptyText} empty texts left out`);
   if (report.missingLabel > 0) parts.push(`${report.missingLabel} rows without a label left out`);
   process.stderr.write(`${report.file}: ${report.rows} rows → ${parts.join(", ")}\n`);

@@ -8,12 +8,13 @@ import { addReportSample, noteSkippedRow } from "./read-report.ts";
 import type { Example } from "./read-types.ts";
 
 /**
- * Throws `error` unless it is a row problem and the read skips bad rows; then counts it.
+ * Throws `error` unless it is a row problem and the read skips bad rows; then counts it,
+ * with the physical lines the row spanned (a CSV record may run over several).
  * @example rejectBadRow(context, new DataError("bad-json", { file, line }, "invalid JSON"))
  */
-export function rejectBadRow(context: ReadContext, error: DataError): void {
+export function rejectBadRow(context: ReadContext, error: DataError, lines = 1): void {
   if (!context.skipBad || !isSkippableDataError(error)) throw error;
-  noteSkippedRow(context.report, error);
+  noteSkippedRow(context.report, error, lines);
 }
 
 function describeTextFields(fields: readonly string[]): string {

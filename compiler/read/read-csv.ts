@@ -19,10 +19,11 @@ import type { ReadContext } from "./read-context.ts";
 import type { Example } from "./read-types.ts";
 import { splitLabelCell } from "./split-labels.ts";
 
-/** One parsed record with the 1-based line it starts on. */
+/** One parsed record with the 1-based physical lines it starts and ends on. */
 interface NumberedRecord {
   fields: string[];
   line: number;
+  lastLine: number;
 }
 
 /** Longest record the parser buffers: larger ones are nearly always an unclosed quote. */
@@ -105,6 +106,9 @@ export async function* readCsv(source: Readable, context: ReadContext): AsyncGen
     // can be skipped; csv-parse would otherwise end the stream on the first one.
     relax_column_count: true,
     skip_empty_lines: false,
+    // CRLF and LF both end a record, whichever the file starts with: a CRLF export with LF
+    // rows appended (or the reverse) is read row by row instead of gluing rows together.
+    record_delimiter: ["\r\n", "\n"],
     max_record_size: MAX_RECORD_CHARS,
     skip_records_with_error: true,
     on_skip: (error) => {
@@ -124,7 +128,7 @@ export async function* readCsv(source: Readable, context: ReadContext): AsyncGen
       // With LF records a CRLF line leaves its CR in the last field: it is line-ending, not data.
       if (fields[last].endsWith("\r")) fields[last] = fields[last].slice(0, -1);
       nextLine += 1 + countLineBreaks(fields);
-      return isBlankRecord(fields) ? null : { fields, line };
+      return isBlankRecord(fields) ? null : { fields, line, lastLine: nextLine - 1 };
     },
   };
   // Without `columns`, csv-parse's overloads type records as string[]; on_record changes that.
@@ -147,10 +151,11 @@ export async function* readCsv(source: Readable, context: ReadContext): AsyncGen
         continue;
       }
       report.rows++;
-      const { fields, line } = record;
+      const { fields, line, lastLine } = record;
       if (fields.length !== header.fields.length) {
-        const detail = `expected ${header.fields.length} fields (as in the header on line ${header.line}), found ${fields.length}`;
-        rejectBadRow(context, new DataError("column-count", { file, line }, detail));
+        const span = lastLine > line ? `; the record runs over lines ${line}–${lastLine} (a quoted field with line breaks, or a quote that is not closed)` : "";
+        const detail = `expected ${header.fields.length} fields (as in the header on line ${header.line}), found ${fields.length}${span}`;
+        rejectBadRow(context, new DataError("column-count", { file, line }, detail), lastLine - line + 1);
         continue;
       }
       const labels = labelIndex === -1 ? null : splitLabelCell(fields[labelIndex], context.labelSep);

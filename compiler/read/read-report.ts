@@ -12,6 +12,8 @@ export interface ReadReport {
   examples: number;
   /** Bad rows skipped (only with skipBad). */
   skipped: number;
+  /** Physical lines the skipped rows spanned (more than `skipped` when a record ran over several lines). */
+  skippedLines: number;
   /** Error code of each skipped row -> count. */
   skippedByReason: Record<string, number>;
   /** Rows whose joined text is empty or whitespace; not yielded. */
@@ -35,6 +37,7 @@ export function createReadReport(file: string): ReadReport {
     rows: 0,
     examples: 0,
     skipped: 0,
+    skippedLines: 0,
     skippedByReason: {},
     emptyText: 0,
     missingLabel: 0,
@@ -52,10 +55,11 @@ export function addReportSample(report: ReadReport, message: string): void {
 
 /**
  * Counts a bad row that was skipped, under its error code.
- * @example noteSkippedRow(report, error) // report.skipped + 1, report.skippedByReason[error.code] + 1
+ * @example noteSkippedRow(report, error, 3) // report.skipped + 1, report.skippedLines + 3, report.skippedByReason[error.code] + 1
  */
-export function noteSkippedRow(report: ReadReport, error: DataError): void {
+export function noteSkippedRow(report: ReadReport, error: DataError, lines = 1): void {
   report.skipped++;
+  report.skippedLines += lines;
   report.skippedByReason[error.code] = (report.skippedByReason[error.code] ?? 0) + 1;
   addReportSample(report, error.message);
 }

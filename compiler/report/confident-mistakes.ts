@@ -14,7 +14,7 @@ export const MISTAKE_TEXT_LENGTH = 240;
  * @example renderConfidentMistakes(data.mistakes)
  */
 export function renderConfidentMistakes(mistakes: readonly ConfidentMistake[]): string {
-  if (mistakes.length === 0) return "<p>The model's top label matches the gold label on every example.</p>";
+  if (mistakes.length === 0) return "<p>The model's top label matches the label in the data on every example.</p>";
   const withLines = mistakes.some((mistake) => mistake.line !== null);
   const headings = [...(withLines ? ["line"] : []), "gold", "predicted", "confidence", "text"];
   const rows = mistakes.map((mistake) => [...(withLines ? [mistake.line === null ? "—" : String(mistake.line)] : []), mistake.gold, mistake.predicted, formatRate(mistake.confidence), shorten(mistake.text.replace(/\s+/g, " "), MISTAKE_TEXT_LENGTH)]);

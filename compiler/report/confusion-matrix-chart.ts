@@ -2,6 +2,7 @@
 // cell shows its count, and its colour is the cell's share of its row (row-normalized), so a
 // rare label's errors are as visible as a common label's.
 
+import { REPORT_WORDS } from "./report-words.ts";
 import { escapeHtml } from "./escape-html.ts";
 import { chartDataTable } from "./html-table.ts";
 import { heatColour, textColourOn } from "./report-palettes.ts";
@@ -44,8 +45,8 @@ export function renderConfusionMatrix(evaluation: EvaluationReport): string {
   const height = Math.max(top + n * cell + 16, top + 200);
 
   const parts: string[] = [];
-  parts.push(svgText(left + (n * cell) / 2, 16, "predicted label", { "text-anchor": "middle", class: "axis-title", fill: INK }));
-  parts.push(svgText(0, 0, "gold label", { "text-anchor": "middle", class: "axis-title", fill: INK, transform: `translate(14 ${top + (n * cell) / 2}) rotate(-90)` }));
+  parts.push(svgText(left + (n * cell) / 2, 16, REPORT_WORDS.modelAnswer, { "text-anchor": "middle", class: "axis-title", fill: INK }));
+  parts.push(svgText(0, 0, REPORT_WORDS.dataLabel, { "text-anchor": "middle", class: "axis-title", fill: INK, transform: `translate(14 ${top + (n * cell) / 2}) rotate(-90)` }));
   shown.forEach((gold, r) => {
     const y = top + r * cell;
     parts.push(svgText(left - 8, y + cell / 2 + 4, names[r], { "text-anchor": "end", class: "label", fill: INK }));
@@ -74,15 +75,15 @@ export function renderConfusionMatrix(evaluation: EvaluationReport): string {
   const diagonal = everyLabel.reduce((sum, i) => sum + evaluation.confusion[i][i], 0);
   const worst = largestConfusion(evaluation, everyLabel);
   const description =
-    `Rows are gold labels, columns predicted labels; colour is the share of the row, from pale yellow (0%) to dark purple (100%). ` +
+    `Rows are the labels in the data, columns the model's answers; colour is the part of the row, from pale (0%) to dark blue (100%). ` +
     `${formatCount(diagonal)} of ${formatCount(evaluation.examples)} examples are on the diagonal (accuracy ${formatRate(evaluation.accuracy)}).` +
     (worst ? ` The largest confusion: ${countOf(worst.count, "text")} labelled ${all[worst.gold]} were predicted as ${all[worst.predicted]}.` : " There are no confusions.");
   const svg = svgChart({ id: "confusion", width, height, title: "Confusion matrix", description }, parts.join(""));
 
-  const note = shown.length < all.length ? `<p class="note">Only the ${shown.length} most frequent gold labels of ${all.length} are drawn; the data table has them all.</p>` : "";
+  const note = shown.length < all.length ? `<p class="note">Only the ${shown.length} most frequent labels in the data of ${all.length} are drawn; the data table has them all.</p>` : "";
   const table = chartDataTable({
-    caption: "confusion counts (rows: gold label, columns: predicted label)",
-    headings: ["gold \\ predicted", ...all, "total"],
+    caption: `confusion counts (rows: ${REPORT_WORDS.dataLabel}, columns: ${REPORT_WORDS.modelAnswer})`,
+    headings: ["in the data \\ model", ...all, "total"],
     rows: all.map((label, g) => [label, ...evaluation.confusion[g], support[g]]),
   });
   return `<figure class="chart-figure side-by-side">${svg}<div class="chart-notes"><figcaption>${escapeHtml(description)}</figcaption>${note}${table}</div></figure>`;
@@ -91,7 +92,7 @@ export function renderConfusionMatrix(evaluation: EvaluationReport): string {
 /** A vertical colour bar from 0% (bottom) to 100% (top) of the gold row. */
 function legend(x: number, top: number, height: number): string {
   const steps = 20;
-  const parts: string[] = [svgText(x, top - 8, "share of row", { class: "legend-title", fill: INK })];
+  const parts: string[] = [svgText(x, top - 8, REPORT_WORDS.rowShare, { class: "legend-title", fill: INK })];
   // Stacked rects rather than an SVG gradient: no ids to keep unique, and it prints the same.
   for (let s = 0; s < steps; s++) {
     const share = 1 - (s + 0.5) / steps;
@@ -104,7 +105,7 @@ function legend(x: number, top: number, height: number): string {
     parts.push(svgText(x + 23, y + 4, formatPercent(share), { class: "tick", fill: INK }));
   }
   parts.push(element("rect", { x, y: top + height + 14, width: 16, height: 12, fill: EMPTY_ROW_FILL, stroke: "#4d4d4d", "stroke-width": 1 }));
-  parts.push(svgText(x + 23, top + height + 24, "no gold", { class: "tick", fill: INK }));
+  parts.push(svgText(x + 23, top + height + 24, REPORT_WORDS.emptyRow, { class: "tick", fill: INK }));
   return parts.join("");
 }
 

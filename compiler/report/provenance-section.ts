@@ -5,6 +5,7 @@ import type { Model } from "../../runtime/model/model.ts";
 import { escapeHtml } from "./escape-html.ts";
 import { htmlTable } from "./html-table.ts";
 import { describeRule } from "./label-table.ts";
+import { provenanceFacts, settingFacts } from "./provenance-facts.ts";
 import { formatBytes, formatCount } from "./report-format.ts";
 
 /** What the report knows about the data it was given (all optional: the pure API may not have a file). */
@@ -20,17 +21,6 @@ export interface ReportDataSource {
   /** When the report was made (ISO); left out when absent, so the output can be reproducible. */
   generatedAt?: string;
 }
-
-// Provenance keys shown in the "Build" list, in this order; any other key is listed after them.
-const BUILD_KEYS: [string, string][] = [
-  ["tool", "tool"],
-  ["builtAt", "built at"],
-  ["data", "training data"],
-  ["dataSha256", "training data SHA-256"],
-  ["examples", "examples read"],
-  ["trainExamples", "examples trained on"],
-  ["fields", "fields"],
-];
 
 /**
  * The provenance section body: model, build, settings, policy and this report's data.
@@ -49,13 +39,9 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
     ["featurizer", `normalization v${featurizer.normalization}, word span ${featurizer.wordSpan}, char span ${featurizer.charMin === 0 ? "off" : `${featurizer.charMin}–${featurizer.charMax}`}, ${featurizer.hashBits} hash bits, seed ${featurizer.hashSeed}, at most ${formatCount(featurizer.maxTokens)} tokens`],
     ["labels", meta.labels.join(", ")],
   ];
-  const buildItems: [string, string][] = [];
-  for (const [key, name] of BUILD_KEYS) if (key in provenance) buildItems.push([name, plain(provenance[key])]);
+  const buildItems = provenanceFacts(provenance);
   const validationExamples = meta.metrics.validationExamples;
   if (typeof validationExamples === "number") buildItems.push(["validation examples", formatCount(validationExamples)]);
-  for (const [key, value] of Object.entries(provenance)) {
-    if (key !== "settings" && !BUILD_KEYS.some(([known]) => known === key)) buildItems.push([key, plain(value)]);
-  }
   const reportItems: [string, string][] = [
     ["data", source.name ?? "(given in memory)"],
     ["data SHA-256", source.dataSha256 ?? "not computed"],
@@ -67,7 +53,7 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
   const settings = provenance.settings;
   const settingsTable =
     typeof settings === "object" && settings !== null
-      ? htmlTable({ caption: "Build settings", headings: ["setting", "value"], rows: Object.entries(settings as Record<string, unknown>).map(([key, value]) => [key, plain(value)]), numericColumns: [], className: "settings-table" })
+      ? htmlTable({ caption: "Build settings", headings: ["setting", "value"], rows: settingFacts(settings as Record<string, unknown>), numericColumns: [], className: "settings-table" })
       : "<p>No build settings are recorded in the model file.</p>";
   const policy = meta.policy;
   const policyItems = policy ? policy.rules.map((rule) => [rule.label, describeRule(rule)] as [string, string]) : [];
@@ -83,12 +69,4 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
 
 function definitionList(items: readonly [string, string][]): string {
   return `<dl class="facts">${items.map(([term, value]) => `<dt>${escapeHtml(term)}</dt><dd>${escapeHtml(value)}</dd>`).join("")}</dl>`;
-}
-
-/** A provenance value as text: strings as they are, anything else as compact JSON. */
-function plain(value: unknown): string {
-  if (typeof value === "string") return value;
-  if (typeof value === "number") return String(value);
-  const json = JSON.stringify(value);
-  return json === undefined ? String(value) : json;
 }

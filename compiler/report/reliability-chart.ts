@@ -3,6 +3,7 @@
 // bar is the accuracy of its bin, the diagonal is perfect calibration. A histogram above it
 // shows how many examples each bin holds, since a bin of three examples says little.
 
+import { REPORT_WORDS } from "./report-words.ts";
 import type { ReliabilityBin } from "../metrics/index.ts";
 import { chartDataTable } from "./html-table.ts";
 import { escapeHtml } from "./escape-html.ts";
@@ -43,7 +44,7 @@ export function renderReliabilityDiagram(bins: readonly ReliabilityBin[], ece: n
   }
 
   // Accuracy bars, the mean confidence of each bin, and the diagonal.
-  parts.push(xyAxes(MAIN, x, y, ticks(0, 1, 0.2), ticks(0, 1, 0.2), "confidence (top score)", "accuracy"));
+  parts.push(xyAxes(MAIN, x, y, ticks(0, 1, 0.2), ticks(0, 1, 0.2), REPORT_WORDS.topScore, REPORT_WORDS.shareRight));
   for (const bin of bins) {
     if (bin.count === 0) continue;
     const left = x(bin.low) + 1.5;
@@ -55,14 +56,18 @@ export function renderReliabilityDiagram(bins: readonly ReliabilityBin[], ece: n
   parts.push(element("rect", { x: MAIN.left + 8, y: MAIN.top + 8, width: 178, height: 24, fill: "#ffffff", "fill-opacity": 0.9, stroke: "#bdbdbd", rx: 3 }));
   parts.push(svgText(MAIN.left + 16, MAIN.top + 25, `ECE ${formatRate(ece)} (${bins.length} bins)`, { class: "headline-number" }));
 
-  // Key under the axis title.
+  // Key under the axis title; each entry starts where the previous one's words end (about
+  // 6.2 px per character at the annotation's 11 px size).
   const keyY = HEIGHT - 12;
-  parts.push(element("rect", { x: MAIN.left, y: keyY - 10, width: 14, height: 12, fill: BAR, stroke: "#00466e" }));
-  parts.push(svgText(MAIN.left + 20, keyY, "accuracy of the bin", { class: "annotation" }));
-  parts.push(element("line", { x1: MAIN.left + 170, y1: keyY - 4, x2: MAIN.left + 186, y2: keyY - 4, stroke: MEAN, "stroke-width": 3 }));
-  parts.push(svgText(MAIN.left + 192, keyY, "mean confidence of the bin", { class: "annotation" }));
-  parts.push(element("line", { x1: MAIN.left + 372, y1: keyY - 4, x2: MAIN.left + 396, y2: keyY - 4, stroke: "#000000", "stroke-width": 1.5, "stroke-dasharray": "6 4" }));
-  parts.push(svgText(MAIN.left + 402, keyY, "perfect calibration", { class: "annotation" }));
+  const barKeyX = MAIN.left;
+  const markKeyX = barKeyX + 20 + textWidth(REPORT_WORDS.barMeaning) + 16;
+  const diagonalKeyX = markKeyX + 22 + textWidth(REPORT_WORDS.markMeaning) + 16;
+  parts.push(element("rect", { x: barKeyX, y: keyY - 10, width: 14, height: 12, fill: BAR, stroke: "#00466e" }));
+  parts.push(svgText(barKeyX + 20, keyY, REPORT_WORDS.barMeaning, { class: "annotation" }));
+  parts.push(element("line", { x1: markKeyX, y1: keyY - 4, x2: markKeyX + 16, y2: keyY - 4, stroke: MEAN, "stroke-width": 3 }));
+  parts.push(svgText(markKeyX + 22, keyY, REPORT_WORDS.markMeaning, { class: "annotation" }));
+  parts.push(element("line", { x1: diagonalKeyX, y1: keyY - 4, x2: diagonalKeyX + 24, y2: keyY - 4, stroke: "#000000", "stroke-width": 1.5, "stroke-dasharray": "6 4" }));
+  parts.push(svgText(diagonalKeyX + 30, keyY, REPORT_WORDS.diagonalMeaning, { class: "annotation" }));
 
   const description = describe(bins, ece, total);
   const svg = svgChart({ id: "reliability", width: WIDTH, height: HEIGHT, title: "Reliability diagram", description }, parts.join(""));
@@ -84,4 +89,8 @@ function describe(bins: readonly ReliabilityBin[], ece: number, total: number): 
     `The fullest bin (${formatRate(fullest.low)}–${formatRate(fullest.high)}) holds ${countOf(fullest.count, "example")}: accuracy ${formatRate(fullest.accuracy)} at mean confidence ${formatRate(fullest.meanConfidence)}. ` +
     `${countOf(over, "example")} ${over === 1 ? "falls" : "fall"} in bins where the model is more confident than it is accurate (bars below the diagonal).`
   );
+}
+
+function textWidth(text: string): number {
+  return Math.ceil(text.length * 6.2);
 }

@@ -1,6 +1,7 @@
 // renderReport: a model plus labelled data in, one self-contained HTML page out. Pure: no
 // file or network access and no clock (the caller passes a time if it wants one shown).
 
+import { RAMP_RULE } from "./colour-ramp.ts";
 import type { Model } from "../../runtime/model/model.ts";
 import type { EvaluationReport } from "../evaluate/evaluate.ts";
 import { TOOL_VERSION } from "../version.ts";
@@ -62,7 +63,7 @@ export function renderReport(model: Model, examples: readonly ReportExample[], e
     });
 
   const sections = [
-    { id: "confusion", heading: "Confusion matrix", body: `<p>Where the top label lands for each gold label. A pale cell off the diagonal is a rare confusion; a dark one is a habit.</p>${renderConfusionMatrix(report)}` },
+    { id: "confusion", heading: "Confusion matrix", body: `<p>Where the model's answer lands for each label in the data. A pale cell off the diagonal is a rare confusion; a dark one is a habit.</p>${renderConfusionMatrix(report)}` },
     { id: "labels", heading: "Results by label", body: renderLabelTable(report, meta.policy?.rules ?? []) },
     {
       id: "precision-recall",
@@ -85,6 +86,6 @@ export function renderReport(model: Model, examples: readonly ReportExample[], e
     lede: `${meta.head} model over ${meta.labels.length} labels (${meta.labels.slice(0, 6).join(", ")}${meta.labels.length > 6 ? ", …" : ""}), measured on ${dataName}.`,
     introduction,
     sections,
-    footer: `Made by sluice ${TOOL_VERSION}. This page loads nothing from the network and runs no script. Colours: viridis for the heat map; Okabe & Ito (2008), "Color Universal Design", for lines.`,
+    footer: `Made by sluice ${TOOL_VERSION}. This page loads nothing from the network and runs no script. Colours: the heat map's ramp is ${RAMP_RULE}; lines use Okabe & Ito (2008), "Color Universal Design".`,
   });
 }

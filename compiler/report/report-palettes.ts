@@ -1,3 +1,5 @@
+import { rampColour } from "./colour-ramp.ts";
+
 // Colours of the report, chosen to stay readable for people with colour-vision deficiencies
 // and to meet WCAG 2.1 contrast (SC 1.4.3 for text, SC 1.4.11 for lines and marks).
 
@@ -42,34 +44,13 @@ export function lineStyle(index: number): LineStyle {
 /** The line colours in use (for tests of their contrast). */
 export const LINE_COLOUR_LIST: readonly string[] = LINE_COLOURS;
 
-// Viridis (van der Walt & Smith, matplotlib 1.5, 2015) sampled at ten evenly spaced points,
-// as the R package viridisLite prints viridis(10) (values from memory). Interpolating these
-// in sRGB is a close approximation of the full 256-entry map, and keeps its property that
-// lightness rises monotonically, so order survives greyscale printing and colour blindness.
-const VIRIDIS_ANCHORS = ["#440154", "#482878", "#3E4A89", "#31688E", "#26828E", "#1F9E89", "#35B779", "#6DCD59", "#B4DE2C", "#FDE725"];
-
 /**
- * The viridis colour at `t` in [0, 1] (0 = dark purple, 1 = yellow), as "#rrggbb".
- * @example viridis(0) // "#440154"
- */
-export function viridis(t: number): string {
-  const clamped = Number.isFinite(t) ? Math.min(1, Math.max(0, t)) : 0;
-  const position = clamped * (VIRIDIS_ANCHORS.length - 1);
-  const low = Math.floor(position);
-  const high = Math.min(VIRIDIS_ANCHORS.length - 1, low + 1);
-  const fraction = position - low;
-  const a = parseHex(VIRIDIS_ANCHORS[low]);
-  const b = parseHex(VIRIDIS_ANCHORS[high]);
-  return toHex(a.map((channel, i) => channel + (b[i] - channel) * fraction) as [number, number, number]);
-}
-
-/**
- * The heat-map colour of a share in [0, 1]: viridis reversed, so an empty cell is pale and a
- * full one dark ("more ink = more examples"), which reads naturally on a white page.
- * @example heatColour(1) // "#440154"
+ * The heat-map colour of a share in [0, 1]: pale for an empty cell, dark for a full one ("more
+ * ink = more examples"), from the computed ramp in colour-ramp.ts.
+ * @example heatColour(0) // the ramp's pale end
  */
 export function heatColour(share: number): string {
-  return viridis(1 - share);
+  return rampColour(share);
 }
 
 /**
@@ -109,6 +90,3 @@ function parseHex(colour: string): [number, number, number] {
   return [(value >> 16) & 255, (value >> 8) & 255, value & 255];
 }
 
-function toHex(channels: [number, number, number]): string {
-  return `#${channels.map((c) => Math.round(c).toString(16).padStart(2, "0")).join("")}`;
-}

@@ -145,7 +145,7 @@ describe("bad data", () => {
     const path = await csvWithBadRow();
     const run = await sluice(["build", path, ...TINY, "--skip-bad", "--out", join(directory, "skipped.sluice")]);
     expect(run.code, run.stderr).toBe(0);
-    expect(run.stderr).toMatch(/1 bad rows skipped/);
+    expect(run.stderr).toMatch(/1 bad row skipped/);
     await expect(stat(join(directory, "skipped.sluice"))).resolves.toBeTruthy();
   });
 });

@@ -1,11 +1,13 @@
 // `sluice build <data> --out model.sluice`: read → train → prune → quantize → verify → write.
 
-import { readFileSync, statSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { basename } from "node:path";
 import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
-import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
-import { clearProgressLine, createProgressBar } from "../progress-bar.ts";
+import type { CalibrationReport } from "../../compile/calibrate.ts";
+import { BUILD_SETTINGS, parseSetting, parseSize, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
+import { chooseBuildPath } from "../choose-build-path.ts";
+import { createBuildProgress } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
@@ -17,8 +19,6 @@ import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
 
-/** Data files above this size are built on disk (bounded memory) without being asked. */
-const ON_DISK_ABOVE_BYTES = 256 * 1024 * 1024;
 
 /** Runs the build command; returns the exit code. */
 export async function buildCommand(argv: string[]): Promise<number> {
@@ -27,7 +27,9 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const dataPath = args.positionals[0];
   const quiet = args.switches.get("--quiet") === true;
   const json = args.switches.get("--json") === true;
+  const progress = createBuildProgress(!quiet && !json);
   const say = (message: string) => {
+    progress.clear();
     if (!quiet) process.stderr.write(`${message}\n`);
   };
   const out = valueOf(args, "--out") ?? "model.sluice";
@@ -41,35 +43,62 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const { settings, read } = settingsFromArgs(args);
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
-  const validation = validationPath ? (await readData(validationPath, args, fields, true, quiet)).examples : undefined;
+  const validation = validationPath ? await readWithProgress(validationPath, args, fields, quiet, progress) : undefined;
   const common = {
     validation,
     settings,
     buildTime: buildTime(),
     dataSha256: await sha256OfFile(dataPath),
     dataName: basename(dataPath),
-    onProgress: createProgressBar(!quiet && !json),
+    onProgress: progress.onTrain,
+    onStage: progress.onStage,
     onMessage: say,
     fields: { text: fields.textFields, label: fields.labelField, ...(fields.labelSep !== undefined ? { labelSep: fields.labelSep } : {}) },
   };
-  const onDisk = args.switches.get("--on-disk") === true || statSync(dataPath).size > ON_DISK_ABOVE_BYTES;
+  const choice = chooseBuildPath(dataPath, settings, { forceOnDisk: args.switches.get("--on-disk") === true, maxMemoryBytes: maxMemoryOf(args) });
+  say(choice.reason);
+  const onDisk = choice.onDisk;
   let result: Awaited<ReturnType<typeof build>>;
   if (onDisk) {
     if (settings.threads > 1) say("note: building on disk trains with one thread");
     const readReport = createReadReport(dataPath);
+    progress.stage(`reading and preparing ${dataPath} on disk`);
     result = await buildFromFile({ ...common, path: dataPath, readOptions: readOptionsFrom(args, fields, true), readReport, validation });
+    progress.clear();
     if (!quiet) describeReadReport(readReport);
   } else {
-    const { examples } = await readData(dataPath, args, fields, true, quiet);
+    const examples = await readWithProgress(dataPath, args, fields, quiet, progress);
+    progress.stage("preparing: featurizing, leak check, fingerprint");
     result = await build({ ...common, examples });
   }
   const { bytes, report } = result;
-  clearProgressLine();
+  progress.done();
   for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
   writeFileAtomic(out, bytes, { force });
-  if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
-  else process.stdout.write(`${describeBuild(out, report)}\n`);
+  // getrusage's maximum resident set size (kilobytes on Linux, process.resourceUsage docs).
+  const peakMemoryBytes = process.resourceUsage().maxRSS * 1024;
+  const memory = { onDisk, buildPath: choice.reason, peakMemoryBytes, projectedMemoryBytes: Math.round(choice.projectedBytes), memoryBudgetBytes: choice.budgetBytes };
+  if (json) process.stdout.write(`${JSON.stringify({ out, ...report, ...memory })}\n`);
+  else process.stdout.write(`${describeBuild(out, report)}\npeak memory ${Math.round(peakMemoryBytes / 1024 ** 2)} MB (RSS), built ${choice.reason}\n`);
   return 0;
+}
+
+/** --max-memory SIZE in bytes, or undefined for the default budget. */
+function maxMemoryOf(args: ReturnType<typeof parseArgs>): number | undefined {
+  const text = valueOf(args, "--max-memory");
+  if (text === undefined) return undefined;
+  const bytes = parseSize(text);
+  if (bytes === null || bytes <= 0) throw new UsageError(`--max-memory: expected a size like 512m or 2g, got "${text}"`);
+  return bytes;
+}
+
+/** Reads a data file with a status line, then prints what was read. */
+async function readWithProgress(path: string, args: ReturnType<typeof parseArgs>, fields: FieldDefaults, quiet: boolean, progress: ReturnType<typeof createBuildProgress>) {
+  progress.stage(`reading ${path}`);
+  const { examples, report } = await readData(path, args, fields, true, true);
+  progress.clear();
+  if (!quiet) describeReadReport(report);
+  return examples;
 }
 
 /** The reading settings used when neither flags nor a config name them. */
@@ -172,11 +201,17 @@ function describeBuild(out: string, report: BuildReport): string {
     "",
     `sections: ${Object.entries(report.sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
   ];
-  if (report.calibration) lines.push(`calibration: temperature ${report.calibration.temperature.toFixed(3)}, ECE ${fixed(report.calibration.eceBefore)} → ${fixed(report.calibration.eceAfter)}`);
+  if (report.calibration) lines.push(describeCalibration(report.calibration));
   if (report.policy) {
     for (const [label, rule] of Object.entries(report.policy)) {
       lines.push(`policy ${label}: ${rule.action} at ≥ ${rule.threshold.toFixed(3)}${rule.reviewFrom !== null ? `, review from ${rule.reviewFrom.toFixed(3)}` : ""} (validation precision ${fixed(rule.precision)}, recall ${fixed(rule.recall)}, review share ${fixed(rule.reviewShare)})`);
     }
   }
   return lines.join("\n");
+}
+
+/** What calibration did, in the terms it works in: it minimizes log loss; ECE is shown beside it. */
+export function describeCalibration(c: CalibrationReport): string {
+  if (c.skipped !== null) return `calibration: skipped, scores left as trained (temperature 1): ${c.skipped}`;
+  return `calibration: temperature ${c.temperature.toFixed(3)}, minimizing log loss, cross-fitted over ${c.folds} folds of ${c.examples} validation examples (${c.errors} errors): held-out log loss ${fixed(c.nllBefore, 4)} → ${fixed(c.nllAfter, 4)}; ECE ${fixed(c.eceBefore)} → ${fixed(c.eceAfter)} (ECE is not what is optimized and may rise)`;
 }

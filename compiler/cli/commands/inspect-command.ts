@@ -1,8 +1,12 @@
-// `sluice inspect <model>`: header, labels, provenance and bytes per section.
+// `sluice inspect <model>`: header, labels, bytes per section, metrics, policy, provenance and
+// settings, as tables and phrases people read; `--json` gives the same as one object.
 
 import { readFileSync } from "node:fs";
 import { summarizeTrainingFingerprint } from "../../read/text-fingerprints.ts";
 import { sectionSizes } from "../../compile/write-model.ts";
+import { describeRule } from "../../report/label-table.ts";
+import { provenanceFacts, settingFacts } from "../../report/provenance-facts.ts";
+import { fixed, formatTable } from "../format-table.ts";
 import { loadModelFile } from "../load-model-file.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError } from "../parse-args.ts";
@@ -23,17 +27,40 @@ export async function inspectCommand(argv: string[]): Promise<number> {
     return 0;
   }
   const f = meta.featurizer;
+  const metrics = meta.metrics as { draft?: { accuracy?: number; macroF1?: number }; compiled?: { accuracy?: number; macroF1?: number }; validationExamples?: number };
   const lines = [
     `${path}: Sluice model ${meta.contentId}, ${meta.bytes} bytes`,
     `head ${meta.head}, ${meta.labels.length} labels, dims ${meta.dims}, ${meta.rowCount} feature rows (${meta.rowSpace === "logits" ? "logit rows, output layer multiplied in" : "hidden rows + output layer"}), ${meta.precision}, weighting ${meta.weighting}, temperature ${meta.calibration.temperature.toFixed(3)}`,
     `featurizer: normalization v${f.normalization}, word span ${f.wordSpan}, char span ${f.charMin === 0 ? "off" : `${f.charMin}-${f.charMax}`}, ${f.hashBits} hash bits, seed ${f.hashSeed}, max ${f.maxTokens} tokens`,
     `labels: ${meta.labels.join(", ")}`,
-    `sections: ${Object.entries(sections).map(([name, bytes]) => `${name} ${bytes}`).join(", ")}`,
-    `metrics: ${JSON.stringify({ draft: meta.metrics.draft, compiled: meta.metrics.compiled, validationExamples: meta.metrics.validationExamples })}`,
-    `policy: ${meta.policy ? JSON.stringify(meta.policy.rules) : "none"}`,
-    `provenance: ${JSON.stringify({ ...meta.provenance, settings: undefined })}`,
-    `settings: ${JSON.stringify(meta.provenance.settings ?? {})}`,
+    "",
+    formatTable(["section", "bytes", "share"], Object.entries(sections).map(([name, bytes]) => [name, bytes, `${((bytes / meta.bytes) * 100).toFixed(1)}%`])),
+    "",
+    `validation (${metrics.validationExamples ?? "n/a"} examples):`,
+    formatTable(
+      ["model", "accuracy", "macro-F1"],
+      [
+        ["draft (float32, all rows)", fixed(metrics.draft?.accuracy ?? NaN), fixed(metrics.draft?.macroF1 ?? NaN)],
+        ["compiled (this file)", fixed(metrics.compiled?.accuracy ?? NaN), fixed(metrics.compiled?.macroF1 ?? NaN)],
+      ],
+    ),
+    "",
+    "policy:",
+    ...(meta.policy ? meta.policy.rules.map((rule) => `  ${rule.label}: ${describeRule(rule)}`) : ["  none: every text is allowed with its top label (the review floor of HTTP and classify still applies)"]),
+    ...(meta.policy?.uncertainBelow !== undefined ? [`  any label: review when the top score is below ${meta.policy.uncertainBelow.toFixed(3)}`] : []),
+    "",
+    "provenance:",
+    ...aligned(provenanceFacts(model.meta.provenance)),
+    "",
+    "build settings:",
+    ...aligned(settingFacts((model.meta.provenance.settings ?? {}) as Record<string, unknown>)),
   ];
   process.stdout.write(`${lines.join("\n")}\n`);
   return 0;
+}
+
+/** "  name   value" lines with the values in one column. */
+function aligned(facts: readonly [string, string][]): string[] {
+  const width = Math.max(0, ...facts.map(([name]) => name.length));
+  return facts.map(([name, value]) => `  ${name.padEnd(width)}  ${value}`);
 }

@@ -1,6 +1,9 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { evaluateModel } from "../../../compiler/evaluate/evaluate.ts";
 import { renderReport } from "../../../compiler/report/render-report.ts";
+import { RAMP_RULE } from "../../../compiler/report/colour-ramp.ts";
+import { escapeHtml } from "../../../compiler/report/escape-html.ts";
+import { REPORT_WORDS } from "../../../compiler/report/report-words.ts";
 import type { Model } from "../../../runtime/model/model.ts";
 import type { ReportExample } from "../../../compiler/report/report-data.ts";
 import { AMPERSAND_LABEL, buildReportModel, SCRIPT_LABEL, TEXT_PAYLOAD, TRAINING_SHA256 } from "./report-test-model.ts";
@@ -197,6 +200,21 @@ describe("renderReport", () => {
     expect(html).toContain("Follow your own policies and local law.");
     expect(html).toContain(TRAINING_SHA256);
     expect(html).toContain("2026-01-01T00:00:00.000Z");
+  });
+
+  it("shows provenance as sizes, counts and phrases, never raw serialized bytes or objects", () => {
+    const provenance = html.slice(html.indexOf("<h3>Build</h3>"));
+    expect(provenance).toMatch(/Bloom filter of [\d\u202f]+ training texts/);
+    // Node's Buffer JSON ({"type":"Buffer","data":[…]}), a long run of numbers, or any JSON object.
+    expect(provenance).not.toMatch(/&quot;data&quot;|"data":/);
+    expect(provenance).not.toMatch(/\d+,\d+,\d+,\d+,\d+,\d+/);
+    expect(provenance).not.toMatch(/\{&quot;|\{"/);
+  });
+
+  it("titles axes and legends in its own words, and states the colour ramp's rule", () => {
+    for (const words of Object.values(REPORT_WORDS)) expect(html).toContain(escapeHtml(words));
+    for (const borrowed of ["predicted label", "gold label", "perfect calibration", "viridis"]) expect(html.toLowerCase()).not.toContain(borrowed);
+    expect(html).toContain(escapeHtml(RAMP_RULE));
   });
 
   it("is a pure function: the same inputs give the same page", () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { contrastRatio, heatColour, LINE_COLOUR_LIST, lineStyle, OKABE_ITO, relativeLuminance, textColourOn, viridis } from "../../../compiler/report/report-palettes.ts";
+import { contrastRatio, heatColour, LINE_COLOUR_LIST, lineStyle, OKABE_ITO, relativeLuminance, textColourOn } from "../../../compiler/report/report-palettes.ts";
 
 describe("WCAG contrast", () => {
   it("gives 21:1 for black on white and 1:1 for a colour on itself", () => {
@@ -40,23 +40,6 @@ describe("palettes", () => {
     const styles = Array.from({ length: 12 }, (_, i) => lineStyle(i));
     const keys = styles.map((s) => `${s.colour} ${s.dash}`);
     expect(new Set(keys).size).toBe(12);
-  });
-
-  it("starts and ends viridis at matplotlib's end colours", () => {
-    // matplotlib's viridis colormap (van der Walt & Smith 2015): first entry #440154, last #FDE725 (from memory).
-    expect(viridis(0)).toBe("#440154");
-    expect(viridis(1)).toBe("#fde725");
-  });
-
-  it("keeps viridis lightness rising monotonically", () => {
-    // van der Walt & Smith, "A Better Default Colormap for Matplotlib", SciPy 2015: viridis is
-    // perceptually uniform with monotonically increasing lightness, so order survives greyscale.
-    let previous = -1;
-    for (let i = 0; i <= 100; i++) {
-      const luminance = relativeLuminance(viridis(i / 100));
-      expect(luminance).toBeGreaterThan(previous);
-      previous = luminance;
-    }
   });
 
   it("prints heat-map numbers with at least 4.5:1 contrast on every cell colour", () => {
