@@ -47,7 +47,7 @@ export async function inspectCommand(argv: string[]): Promise<number> {
     "",
     "policy:",
     ...(meta.policy ? meta.policy.rules.map((rule) => `  ${rule.label}: ${describeRule(rule)}`) : ["  none: every text is allowed with its top label (the review floor of HTTP and classify still applies)"]),
-    ...(meta.policy?.uncertainBelow !== undefined ? [`  any label: review when the top score is below ${meta.policy.uncertainBelow.toFixed(3)}`] : []),
+    ...(meta.policy?.reviewBelow !== undefined ? [`  any label: review when the top score is below ${meta.policy.reviewBelow.toFixed(3)}`] : []),
     "",
     "provenance:",
     ...aligned(provenanceFacts(model.meta.provenance)),
