@@ -46,7 +46,7 @@ beforeAll(() => {
   // A small slice of the demo contact form (JSONL, text in "message").
   const lines = readFileSync(join(REPO, "demo-data/contact-form.jsonl"), "utf8").split("\n").slice(0, 400);
   writeFileSync(join(folder, "small.jsonl"), `${lines.join("\n")}\n`);
-});
+}, 600_000); // packing compiles the whole tree and the install unpacks every dependency: minutes on a busy machine
 
 afterAll(() => {
   if (folder) rmSync(folder, { recursive: true, force: true });
@@ -100,7 +100,7 @@ describe("the installed package under plain Node", () => {
     writeFileSync(join(folder, "typed.ts"), `import { loadModel, type LabelScore } from "sluice/runtime";\nimport { build, type BuildReport } from "sluice/compiler";\nimport { createApp } from "sluice/worker";\nconst scores: LabelScore[] = loadModel(new Uint8Array(0)).classify("text");\nconst label: string = scores[0].label;\nconst report: Promise<BuildReport> = build({ examples: [], settings: {} as never, buildTime: "" }).then((r) => r.report);\nvoid [label, report, createApp];\n// @ts-expect-error classify returns scores, not a number: proves the types are real, not any\nconst wrong: number = loadModel(new Uint8Array(0)).classify("text");\nvoid wrong;\n`);
     writeFileSync(join(folder, "tsconfig.json"), JSON.stringify({ compilerOptions: { module: "nodenext", moduleResolution: "nodenext", target: "ES2022", strict: true, noEmit: true, skipLibCheck: false, lib: ["ES2022", "DOM"], types: ["node"], typeRoots: [join(REPO, "node_modules/@types")] }, files: ["typed.ts"] }));
     run(process.execPath, [join(REPO, "node_modules/typescript/bin/tsc"), "-p", "tsconfig.json"], folder);
-  });
+  }, 600_000); // type-checks hono's and Node's declarations too (skipLibCheck off): slow on a busy machine
 });
 
 describe("the installed runtime in a browser", () => {
