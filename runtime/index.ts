@@ -5,6 +5,7 @@ export { loadModel } from "./format/load-model.ts";
 export { Model } from "./model/model.ts";
 export type {
   ClassifyOptions,
+  DecideOptions,
   Explanation,
   FeatureContribution,
   LabelExplanation,
@@ -23,3 +24,4 @@ export { murmur3String, murmur3Bytes } from "./featurizer/murmur3.ts";
 export { crc32 } from "./format/crc32.ts";
 export { FORMAT_VERSION } from "./format/format.ts";
 export type { ModelHeader, HeadKind, Weighting, Precision } from "./format/model-header.ts";
+export { SURFACE_DEFAULTS } from "./surface-defaults.ts";

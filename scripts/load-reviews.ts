@@ -12,7 +12,6 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { Log, LogLevel, Miniflare } from "miniflare";
 import { loadModel } from "../runtime/index.ts";
-import { decideText } from "../runtime/worker/decide-text.ts";
 import type { D1Database } from "../runtime/worker/reviews/d1-types.ts";
 import { buildWorkerBundle } from "./build-worker.ts";
 import { integerFlag, percentile } from "./load-options.ts";
@@ -44,7 +43,7 @@ function migrationStatements(): string[] {
 const live = loadModel(readFileSync(DEMO_MODEL_PATH));
 const outdir = mkdtempSync(join(tmpdir(), "sluice-load-reviews-"));
 const bundle = buildWorkerBundle({ outdir });
-const isReview = texts.map((text) => decideText(live, text, 0.6).action === "review");
+const isReview = texts.map((text) => live.decide(text, { reviewBelow: 0.6 }).action === "review");
 
 interface RunResult {
   mode: "off" | "on";

@@ -142,37 +142,38 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   input.onStage?.("verify");
 
   // Measure what ships, record it in the header, write the final bytes.
-  const shipped = loadModel(writeModel(compiled.contents));
-  const evaluation = validation.length > 0 ? evaluateModel(shipped, validation) : null;
-  const compiledQuality = evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN };
   const latencyPool = validationTexts.length > 0 ? validationTexts : (input.examples ?? []).map((e) => e.text);
-  const latency = latencyPool.length > 0 ? measureLatency(shipped, latencyPool) : null;
-  compiled.contents.header.metrics = {
-    validationExamples: validation.length,
-    draft: roundQuality(draftQuality),
-    draftBytes: draftBytes.length,
-    draftRows: draft.slots.length,
-    compiled: roundQuality(compiledQuality),
-    ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
-    labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
-    ...(latency && input.latencyInFile ? { latency } : {}),
-    // What the Worker's traffic counts will be compared with (population stability in the report).
-    ...(validation.length > 0 ? { traffic: validationTraffic(shipped, validationTexts) } : {}),
+  const measure = (contents: typeof compiled.contents) => {
+    const model = loadModel(writeModel(contents));
+    const evaluation = validation.length > 0 ? evaluateModel(model, validation) : null;
+    const latency = latencyPool.length > 0 ? measureLatency(model, latencyPool) : null;
+    contents.header.metrics = {
+      validationExamples: validation.length,
+      draft: roundQuality(draftQuality),
+      draftBytes: draftBytes.length,
+      draftRows: draft.slots.length,
+      compiled: roundQuality(evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN }),
+      ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
+      labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
+      ...(latency && input.latencyInFile ? { latency } : {}),
+      // What the Worker's traffic counts will be compared with (population stability in the report).
+      ...(validation.length > 0 ? { traffic: validationTraffic(model, validationTexts) } : {}),
+    };
+    return { model, evaluation, latency, bytes: writeModel(contents) };
   };
-  let bytes = writeModel(compiled.contents);
-  if (settings.maxBytes > 0 && bytes.length > settings.maxBytes) {
-    // The metrics made the header a little longer: drop rows until it fits, keeping the measured metrics honest.
-    while (bytes.length > settings.maxBytes && keep > 0) {
-      keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings, rowSpace === "logits" ? header.outputCount : settings.dims))));
-      const smaller = await compile(keep);
-      smaller.contents.header = { ...compiled.contents.header };
-      compiled = smaller;
-      const reloaded = loadModel(writeModel(compiled.contents));
-      const again = validation.length > 0 ? evaluateModel(reloaded, validation) : null;
-      if (again) (compiled.contents.header.metrics as Record<string, unknown>).compiled = roundQuality(quality(again));
-      bytes = writeModel(compiled.contents);
-    }
+  let { model: shipped, evaluation, latency, bytes } = measure(compiled.contents);
+  // The metrics made the header a little longer than the budget reserved: drop rows until it
+  // fits, measuring each smaller model again, so the metrics, the report and the round-trip
+  // check below all describe the bytes that are written (the calibration, thresholds and
+  // policy stay those chosen on the larger model).
+  while (settings.maxBytes > 0 && bytes.length > settings.maxBytes && keep > 0) {
+    keep = Math.max(0, keep - Math.max(1, Math.ceil((bytes.length - settings.maxBytes) / rowBytes(settings, rowSpace === "logits" ? header.outputCount : settings.dims))));
+    const smaller = await compile(keep);
+    smaller.contents.header = { ...compiled.contents.header };
+    compiled = smaller;
+    ({ model: shipped, evaluation, latency, bytes } = measure(compiled.contents));
   }
+  const compiledQuality = evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN };
   verifyRoundTrip(bytes, shipped, validationTexts.slice(0, 50), head);
   clock.lap("verify");
   const report: BuildReport = {

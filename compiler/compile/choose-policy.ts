@@ -81,6 +81,6 @@ export function choosePolicy(
   }
   if (rules.length === 0 && reviewBelow <= 0) return { policy: null, report: null };
   const policy: Policy = { rules };
-  if (reviewBelow > 0) policy.uncertainBelow = reviewBelow;
+  if (reviewBelow > 0) policy.reviewBelow = reviewBelow;
   return { policy, report };
 }

@@ -3,6 +3,7 @@
 
 import { pack, unpack } from "msgpackr";
 import { crc32 } from "../../runtime/format/crc32.ts";
+import { policyToStored } from "../../runtime/format/stored-policy.ts";
 import {
   CHECKSUM_BYTES,
   DIRECTORY_ENTRY_BYTES,
@@ -208,7 +209,7 @@ function orderedHeader(header: ModelHeader): Record<string, unknown> {
     index: header.index,
     calibration: header.calibration,
     thresholds: header.thresholds,
-    policy: header.policy,
+    policy: policyToStored(header.policy),
     metrics: header.metrics,
     provenance: header.provenance,
   };

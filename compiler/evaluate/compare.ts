@@ -75,7 +75,7 @@ export interface FlipGroup {
 export interface ModelComparison extends Omit<PredictionComparison, "flips"> {
   examples: number;
   labels: string[];
-  versions: { live: string; candidate: string };
+  contentIds: { live: string; candidate: string };
   flips: { fixed: FlipGroup; broken: FlipGroup; changed: FlipGroup };
   /** Examples with a gold label the models do not know (left out). */
   unknownLabelExamples: number;
@@ -155,7 +155,7 @@ export function compareModels(live: Model, candidate: Model, examples: readonly 
   return {
     examples: kept.length,
     labels,
-    versions: { live: live.meta.version, candidate: candidate.meta.version },
+    contentIds: { live: live.meta.contentId, candidate: candidate.meta.contentId },
     live: paired.live,
     candidate: paired.candidate,
     delta: paired.delta,

@@ -9,7 +9,7 @@
 // - overall, `decisions`: each example's runtime decision (runtime/model/policy.ts decideFromScores,
 //   severity block > review > route > allow, so every example counts once), with the review
 //   decisions split by cause: `band` (a rule's review band), `rule` (a review-action rule
-//   fired) and `floor` (no rule fired and the top score is below policy.uncertainBelow).
+//   fired) and `floor` (no rule fired and the top score is below policy.reviewBelow).
 //   The per-rule shares can overlap and can exceed what is reviewed when a block outranks them.
 
 import type { Model } from "../../runtime/model/model.ts";
@@ -140,7 +140,7 @@ export function evaluatePolicyScores(policy: Policy, labels: readonly string[], 
 }
 
 // Why a review decision was made, mirroring decideFromScores: the first rule of the decided
-// label that yields review, else the confidence floor.
+// label that yields review, else the review floor.
 function reviewCause(policy: Policy, labels: readonly string[], row: ArrayLike<number>, decision: Decision): "band" | "rule" | "floor" {
   for (const rule of policy.rules) {
     if (rule.label !== decision.label) continue;

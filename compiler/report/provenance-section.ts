@@ -31,7 +31,7 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
   const provenance = meta.provenance;
   const featurizer = meta.featurizer;
   const modelItems: [string, string][] = [
-    ["content id (CRC-32)", meta.version],
+    ["content id (CRC-32)", meta.contentId],
     ["file size", formatBytes(meta.bytes)],
     ["head", `${meta.head} over ${meta.labels.length} labels`],
     ["feature rows", `${formatCount(meta.rowCount)} × ${meta.rowSpace === "logits" ? `${meta.labels.length} logits (trained at ${meta.dims} dims, output layer multiplied in)` : `${meta.dims} dims`}, stored as ${meta.precision}, weighting ${meta.weighting}`],
@@ -57,7 +57,7 @@ export function renderProvenance(model: Model, source: ReportDataSource): string
       : "<p>No build settings are recorded in the model file.</p>";
   const policy = meta.policy;
   const policyItems = policy ? policy.rules.map((rule) => [rule.label, describeRule(rule)] as [string, string]) : [];
-  if (policy?.uncertainBelow !== undefined) policyItems.push(["any label", `review when the top score is below ${policy.uncertainBelow.toFixed(3)}`]);
+  if (policy?.reviewBelow !== undefined) policyItems.push(["any label", `review when the top score is below ${policy.reviewBelow.toFixed(3)}`]);
 
   return [
     `<div class="two-columns"><div><h3>Model</h3>${definitionList(modelItems)}</div><div><h3>Build</h3>${definitionList(buildItems)}</div></div>`,

@@ -82,7 +82,7 @@ export function renderReport(model: Model, examples: readonly ReportExample[], e
   ];
 
   return renderPage({
-    title: `Sluice model report: ${meta.version}`,
+    title: `Sluice model report: ${meta.contentId}`,
     lede: `${meta.head} model over ${meta.labels.length} labels (${meta.labels.slice(0, 6).join(", ")}${meta.labels.length > 6 ? ", …" : ""}), measured on ${dataName}.`,
     introduction,
     sections,

@@ -54,7 +54,7 @@ function shares(counts: Readonly<Record<string, number>>, category: string): num
 }
 
 function trafficSections(model: Model, stats: StatsExport): PageSection[] {
-  const live = stats.hours.filter((h) => h.modelVersion === model.meta.version);
+  const live = stats.hours.filter((h) => h.modelVersion === model.meta.contentId);
   const labels: Record<string, number> = {};
   const scores: Record<string, number> = {};
   const actions: Record<string, number> = {};
@@ -66,7 +66,7 @@ function trafficSections(model: Model, stats: StatsExport): PageSection[] {
   const requests = Object.values(actions).reduce((a, b) => a + b, 0);
   const validation = validationCounts(model);
   const sections: PageSection[] = [];
-  let body = `<p>${formatCount(requests)} decisions by model ${escapeHtml(model.meta.version)} in ${live.length} hours of counts.</p>`;
+  let body = `<p>${formatCount(requests)} decisions by model ${escapeHtml(model.meta.contentId)} in ${live.length} hours of counts.</p>`;
   if (stats.isolate && (stats.isolate.reviewsLost ?? 0) > 0) body += `<p class="warning">The exporting isolate could not store ${formatCount(stats.isolate.reviewsLost ?? 0)} review items (${formatCount(stats.isolate.writesFailed ?? 0)} failed writes).</p>`;
   body += htmlTable({ caption: "decisions by action", headings: ["action", "decisions", "share"], rows: Object.entries(actions).sort().map(([action, n]) => [action, formatCount(n), formatPercent(n / Math.max(1, requests))]) });
   if (validation === null) {
@@ -133,7 +133,7 @@ function shadowSection(shadow: ShadowExport): PageSection {
 export function renderTrafficReport(model: Model, stats: StatsExport | null, shadow: ShadowExport | null, generatedAt: string): string {
   const sections = [...(stats !== null ? trafficSections(model, stats) : []), ...(shadow !== null ? [shadowSection(shadow)] : [])];
   return renderPage({
-    title: `Sluice traffic report: ${model.meta.version}`,
+    title: `Sluice traffic report: ${model.meta.contentId}`,
     lede: "What the deployed Worker counted, beside what the model saw when it was built.",
     introduction: "<p>Counts only: the Worker keeps no text for these figures. A drifting mix of labels or scores is a reason to review more traffic and rebuild, not proof that accuracy fell.</p>",
     sections,

@@ -24,12 +24,17 @@ export interface ParallelJob {
 
 let bundledWorker: string | null | undefined;
 
+/** True when this module runs as compiled JavaScript (the installed package's lib/). */
+const COMPILED = import.meta.url.endsWith(".js");
+
 /**
- * The worker's code as one plain-JavaScript bundle (esbuild, once per process): a thread
- * then starts in tens of milliseconds instead of the ~0.3 s the TypeScript loader needs.
- * Falls back to the loader entry when esbuild cannot be used.
+ * Compiled (the installed package): the worker is the sibling train-worker.js, plain Node
+ * starts it as is. From the TypeScript sources: the worker's code as one plain-JavaScript
+ * bundle (esbuild, once per process), so a thread starts in tens of milliseconds instead of
+ * the ~0.3 s the TypeScript loader needs; the loader entry when esbuild cannot be used.
  */
 function startWorker(job: ParallelJob): Worker {
+  if (COMPILED) return new Worker(new URL("./train-worker.js", import.meta.url), { workerData: job });
   if (bundledWorker === undefined) {
     try {
       const require = createRequire(import.meta.url);

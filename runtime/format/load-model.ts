@@ -80,7 +80,7 @@ export function loadModel(input: Uint8Array | ArrayBuffer): Model {
   const entries = readDirectory(view, directoryStart, length - CHECKSUM_BYTES);
   if (bytes.byteOffset % SECTION_ALIGNMENT !== 0) bytes = bytes.slice(); // one aligned copy
   const parts = buildParts(bytes, header, entries, version);
-  return new Model({ ...parts, version: hex(storedChecksum).slice(2), byteLength: length });
+  return new Model({ ...parts, contentId: hex(storedChecksum).slice(2), byteLength: length });
 }
 
 function toBytes(input: Uint8Array | ArrayBuffer): Uint8Array {
@@ -148,7 +148,7 @@ function checkNoStrayBytes(view: DataView, ordered: SectionEntry[], firstOffset:
   if (cursor !== dataEnd) throw new ModelFormatError("bad-section", `${dataEnd - cursor} stray bytes between the last section and the checksum`, cursor);
 }
 
-type Parts = Omit<ConstructorParameters<typeof Model>[0], "version" | "byteLength">;
+type Parts = Omit<ConstructorParameters<typeof Model>[0], "contentId" | "byteLength">;
 
 function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number, SectionEntry>, version: number): Parts {
   const { dims, rowCount, outputCount } = header;

@@ -22,9 +22,10 @@ export function validatePolicy(value: unknown, labels: readonly string[], fail: 
   if (!Array.isArray(rules) || rules.length > MAX_POLICY_RULES) return fail("policy.rules", `an array of at most ${MAX_POLICY_RULES} rules`);
   const checked: PolicyRule[] = rules.map((rule, i) => validateRule(rule, `policy.rules[${i}]`, labels, fail));
   const result: Policy = { rules: checked };
+  // The review floor is stored under its first name (stored-policy.ts, FORMAT.md).
   if (policy.uncertainBelow !== undefined && policy.uncertainBelow !== null) {
     if (!isUnitInterval(policy.uncertainBelow)) return fail("policy.uncertainBelow", "a number in [0, 1]");
-    result.uncertainBelow = policy.uncertainBelow;
+    result.reviewBelow = policy.uncertainBelow;
   }
   return result;
 }

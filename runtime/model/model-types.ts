@@ -17,13 +17,18 @@ export interface ModelParts {
   outputBias: Float32Array;
   tree: Int32Array | null;
   /** Content id: the file's CRC-32 as 8 hex digits. */
-  version: string;
+  contentId: string;
   byteLength: number;
 }
 
 export interface LabelScore {
   label: string;
   score: number;
+}
+
+export interface DecideOptions {
+  /** The caller's review floor: an "allow" whose top score is below this becomes "review" (default 0, off). */
+  reviewBelow?: number;
 }
 
 export interface ClassifyOptions {
@@ -68,7 +73,11 @@ export interface Explanation {
 
 /** Public description of a model (no training data). */
 export interface ModelMeta {
-  version: string;
+  /**
+   * Which file this is: its CRC-32 in 8 hex digits, equal for two files only when their bytes
+   * are. Not a version: the format's version is `FORMAT_VERSION`, the tool's is in provenance.
+   */
+  contentId: string;
   bytes: number;
   labels: string[];
   head: ModelHeader["head"];

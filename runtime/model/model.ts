@@ -13,11 +13,11 @@ import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featuri
 import { explainLabels } from "./explain-labels.ts";
 import { decideFromScores, failClosed, type Decision } from "./policy.ts";
 import { LabelTree, type NodeScorer } from "./label-tree.ts";
-import type { ClassifyOptions, Explanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
+import type { ClassifyOptions, DecideOptions, Explanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
 import { rankLabels } from "./rank-labels.ts";
 import { accumulateFloat, accumulateInt8, accumulateLogitRowsInt8, logitsFloat, logitsInt8 } from "./scoring-kernels.ts";
 
-export type { ClassifyOptions, Explanation, FeatureContribution, LabelExplanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
+export type { ClassifyOptions, DecideOptions, Explanation, FeatureContribution, LabelExplanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
 
 
 export class Model implements NodeScorer {
@@ -50,7 +50,7 @@ export class Model implements NodeScorer {
     this.topLabelScratch = new Int32Array(header.labels.length);
     this.topProbabilityScratch = new Float64Array(header.labels.length);
     this.meta = {
-      version: parts.version,
+      contentId: parts.contentId,
       bytes: parts.byteLength,
       labels: [...header.labels],
       head: header.head,
@@ -114,24 +114,26 @@ export class Model implements NodeScorer {
 
   /**
    * The decision of the model's policy for a text, with reasons (rules that fired and
-   * the features that pushed the label). Without a policy the action is always "allow".
-   * Never throws for a string: a non-finite score or any error on the way gives "review"
-   * with `fault` set (see failClosed).
+   * the features that pushed the label). Without a policy the action is "allow", or "review"
+   * below `options.reviewBelow`, the caller's review floor (the higher of it and the policy's
+   * own floor applies; it never blocks). Never throws for a string: a non-finite score or any
+   * error on the way gives "review" with `fault` set (see failClosed).
    * @example model.decide("WIN A FREE PRIZE") // { action: "review", label: "spam", score: 0.81, reasons: [...] }
+   * @example model.decide("hello?", { reviewBelow: 0.6 }) // { action: "review", label: "ok", score: 0.52, reasons: [...] }
    */
-  decide(text: string): Decision {
+  decide(text: string, options: DecideOptions = {}): Decision {
     checkText(text);
     // Fail closed: whatever goes wrong past the caller's own mistake (not a string) is "review".
     try {
-      return this.decideChecked(text);
+      return this.decideChecked(text, options);
     } catch (error) {
       return failClosed("decision-error", error instanceof Error ? `${error.name}: ${error.message}` : String(error));
     }
   }
 
-  private decideChecked(text: string): Decision {
+  private decideChecked(text: string, options: DecideOptions): Decision {
     const scores = this.scoreText(text);
-    const decision = decideFromScores(this.parts.header.policy, this.labels, scores);
+    const decision = decideFromScores(this.parts.header.policy, this.labels, scores, options.reviewBelow ?? 0);
     if (decision.fault !== undefined) return decision;
     if (this.lastKnown === 0) decision.reasons.push("no known feature in the text: the score is the model's prior");
     if (decision.action !== "allow" || this.parts.header.policy === null) {

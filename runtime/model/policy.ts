@@ -21,8 +21,11 @@ export interface PolicyRule {
 
 export interface Policy {
   rules: PolicyRule[];
-  /** When the top score is below this, the decision is `review` (unless a rule blocks). */
-  uncertainBelow?: number;
+  /**
+   * The review floor compiled into the model (`--review-below`): an "allow" whose top score is
+   * below this becomes "review"; it never blocks. Stored in the file as `uncertainBelow`.
+   */
+  reviewBelow?: number;
 }
 
 /** What the runtime returns for a text under a policy. */
@@ -64,23 +67,21 @@ export function failClosed(code: DecisionFaultCode, message: string, label = "",
 const SEVERITY: Record<Action, number> = { allow: 0, route: 1, review: 2, block: 3 };
 
 /**
- * Applies a policy to label scores (pure; no features).
+ * Applies a policy to label scores (pure; no features), then the review floor: the higher of
+ * the policy's own `reviewBelow` and the caller's (a server's REVIEW_BELOW), which applies
+ * with or without a policy.
  * @example decideFromScores({ rules: [{ label: "spam", action: "block", threshold: 0.98, reviewFrom: 0.6 }] }, ["ok", "spam"], [0.3, 0.7])
  * // → { action: "review", label: "spam", score: 0.7, reasons: ["spam 0.700 is in the review band [0.600, 0.980)"] }
  */
-export function decideFromScores(policy: Policy | null, labels: readonly string[], scores: ArrayLike<number>): Decision {
+export function decideFromScores(policy: Policy | null, labels: readonly string[], scores: ArrayLike<number>, reviewBelow = 0): Decision {
   for (let k = 0; k < labels.length; k++) {
     if (!Number.isFinite(scores[k])) return failClosed("non-finite-score", `the score of ${labels[k]} is ${scores[k]}`, labels[k]);
   }
   let top = 0;
   for (let k = 1; k < labels.length; k++) if (scores[k] > scores[top]) top = k;
   let decision: Decision = { action: "allow", label: labels[top], score: scores[top], reasons: [] };
-  if (!policy) {
-    decision.reasons.push(`no policy: top label ${labels[top]} ${scores[top].toFixed(3)}`);
-    return decision;
-  }
   const reasons: string[] = [];
-  for (const rule of policy.rules) {
+  for (const rule of policy?.rules ?? []) {
     const k = labels.indexOf(rule.label);
     if (k < 0) continue;
     const score = scores[k];
@@ -97,11 +98,12 @@ export function decideFromScores(policy: Policy | null, labels: readonly string[
       if (action === "route" && rule.routeTo !== undefined) decision.routeTo = rule.routeTo;
     }
   }
-  if (decision.action === "allow" && policy.uncertainBelow !== undefined && scores[top] < policy.uncertainBelow) {
+  const floor = Math.max(policy?.reviewBelow ?? 0, reviewBelow);
+  if (decision.action === "allow" && scores[top] < floor) {
     decision = { action: "review", label: labels[top], score: scores[top], reasons: [] };
-    reasons.push(`top label ${labels[top]} ${scores[top].toFixed(3)} is below the confidence floor ${policy.uncertainBelow.toFixed(3)}`);
+    reasons.push(`top label ${labels[top]} ${scores[top].toFixed(3)} is below the review floor ${floor.toFixed(3)}`);
   }
-  if (reasons.length === 0) reasons.push(`no rule fired; top label ${labels[top]} ${scores[top].toFixed(3)}`);
+  if (reasons.length === 0) reasons.push(`${policy ? "no rule fired;" : "no policy:"} top label ${labels[top]} ${scores[top].toFixed(3)}`);
   decision.reasons = reasons;
   return decision;
 }

@@ -2,7 +2,7 @@
 // bindings ([vars] and secrets in wrangler.toml) or from process.env under `sluice serve`.
 // One table of defaults; every variable is parsed with an error that names it.
 
-import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
+import { SURFACE_DEFAULTS } from "../index.ts";
 import type { RateLimitBinding } from "./platform-types.ts";
 import type { ReviewLoop } from "./reviews/review-loop.ts";
 

@@ -5,11 +5,9 @@
 // "minScore" (leave out lower scores).
 
 import type { Handler } from "hono";
-import type { LabelScore, Model } from "../model/model.ts";
-import type { Decision } from "../model/policy.ts";
+import type { Decision, LabelScore, Model } from "../index.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
-import { decideText } from "./decide-text.ts";
 import { readBodyFields } from "./read-request-body.ts";
 import { deferWith } from "./reviews/review-loop.ts";
 import { integerOption, numberOption, requireText } from "./text-input.ts";
@@ -40,7 +38,7 @@ export function classifyRoute(model: Model, config: AppConfig): Handler {
       const { tokenCount, truncated, knownFeatures } = model.score(text);
       const result: TextResult = { labels, tokenCount, truncated, knownFeatures };
       if (hasPolicy) {
-        const decision = decideText(model, text, config.reviewBelow);
+        const decision = model.decide(text, { reviewBelow: config.reviewBelow });
         result.decision = decision;
         config.reviewLoop?.observe(deferWith(() => c.executionCtx), { source: "classify", text, decision, reviewBelow: config.reviewBelow });
       }
@@ -49,12 +47,12 @@ export function classifyRoute(model: Model, config: AppConfig): Handler {
     if (body.text !== undefined && body.texts !== undefined) throw new ApiError("invalid-input", 'give either "text" or "texts", not both');
     if (body.texts === undefined) {
       const text = requireText(body.text, "text");
-      return c.json({ version: model.meta.version, ...classifyOne(text) });
+      return c.json({ contentId: model.meta.contentId, ...classifyOne(text) });
     }
     if (!Array.isArray(body.texts)) throw new ApiError("invalid-input", `"texts" must be an array of strings, got ${typeof body.texts}`);
     if (body.texts.length === 0) throw new ApiError("missing-text", '"texts" is empty; expected at least one text');
     if (body.texts.length > config.maxTexts) throw new ApiError("too-many-texts", `"texts" has ${body.texts.length} texts; this server takes at most ${config.maxTexts} per call`);
     const texts = body.texts.map((value: unknown, i: number) => requireText(value, `texts[${i}]`));
-    return c.json({ version: model.meta.version, results: texts.map(classifyOne) });
+    return c.json({ contentId: model.meta.contentId, results: texts.map(classifyOne) });
   };
 }

@@ -8,8 +8,7 @@ import { bodyLimit } from "hono/body-limit";
 import { cors } from "hono/cors";
 import { HTTPException } from "hono/http-exception";
 import { NONCE, secureHeaders, type SecureHeadersVariables } from "hono/secure-headers";
-import { InputError } from "../errors.ts";
-import type { Model } from "../model/model.ts";
+import { InputError, type Model } from "../index.ts";
 import { ApiError, errorResponse } from "./api-error.ts";
 import { resolveAppConfig, type AppConfig } from "./app-config.ts";
 import { classifyRoute } from "./classify-route.ts";
@@ -85,7 +84,7 @@ export function createApp(model: Model, partialConfig: Partial<AppConfig> = {}):
   app.get("/", (c) => c.html(playgroundPage(model, c.get("secureHeadersNonce") ?? "")));
   // Browsers ask for an icon next to every page; answer "nothing here" instead of a 404 error.
   app.get("/favicon.ico", (c) => c.body(null, 204));
-  app.get("/healthz", (c) => c.json({ status: "ok", version: model.meta.version, labels: model.labels.length }));
+  app.get("/healthz", (c) => c.json({ status: "ok", contentId: model.meta.contentId, labels: model.labels.length }));
   app.get("/v1/model", modelRoute(model));
   app.post("/v1/classify", classifyRoute(model, config));
   app.post("/v1/moderate", moderateRoute(model, config));

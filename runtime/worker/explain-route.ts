@@ -4,10 +4,8 @@
 // surface shares (runtime/surface-defaults.ts).
 
 import type { Handler } from "hono";
-import type { Model } from "../model/model.ts";
-import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
+import { SURFACE_DEFAULTS, type Model } from "../index.ts";
 import type { AppConfig } from "./app-config.ts";
-import { decideText } from "./decide-text.ts";
 import { readBodyFields } from "./read-request-body.ts";
 import { integerOption, requireText } from "./text-input.ts";
 
@@ -23,7 +21,7 @@ export function explainRoute(model: Model, config: AppConfig): Handler {
     const top = integerOption(body.top, "top", 1, labelCount, Math.min(SURFACE_DEFAULTS.explainTop, labelCount));
     const features = integerOption(body.features, "features", 1, 50, SURFACE_DEFAULTS.explainFeatures);
     const explanation = model.explain(text, { top, features });
-    const decision = decideText(model, text, config.reviewBelow);
-    return c.json({ version: model.meta.version, ...explanation, decision });
+    const decision = model.decide(text, { reviewBelow: config.reviewBelow });
+    return c.json({ contentId: model.meta.contentId, ...explanation, decision });
   };
 }

@@ -48,13 +48,13 @@ export async function handleEmail(models: EmailModels, config: EmailConfig, mess
 /**
  * The headers a forwarded message gains (forwards may only add X-* headers, Email Workers
  * runtime API): the moderation action, the topic and its score when routing ran, both model
- * versions, and on the fallback path a flag and the reason.
+ * content ids, and on the fallback path a flag and the reason.
  * @example forwardHeaders(models, outcome).get("X-Sluice-Topic") // "billing"
  */
 export function forwardHeaders(models: EmailModels, outcome: EmailOutcome): Headers {
   const headers = new Headers({
     "X-Sluice-Moderation": outcome.moderation.action,
-    "X-Sluice-Model": `moderation=${models.moderation.meta.version}; routing=${models.routing.meta.version}`,
+    "X-Sluice-Model": `moderation=${models.moderation.meta.contentId}; routing=${models.routing.meta.contentId}`,
     "X-Sluice-Tokens": String(outcome.tokenCount),
   });
   if (outcome.topic !== null) {

@@ -5,7 +5,7 @@
 // its bits anyone could test whether a given text was trained on, so only its size is served.
 
 import type { Handler } from "hono";
-import type { Model } from "../model/model.ts";
+import type { Model } from "../index.ts";
 
 /** Provenance keys served as they are: names, counts, hashes and settings, never texts. */
 const PUBLIC_PROVENANCE_KEYS = ["tool", "builtAt", "data", "fields", "dataSha256", "examples", "trainExamples", "settings"] as const;
@@ -17,7 +17,7 @@ const PUBLIC_PROVENANCE_KEYS = ["tool", "builtAt", "data", "fields", "dataSha256
 export function modelRoute(model: Model): Handler {
   const meta = model.meta;
   const description = {
-    version: meta.version,
+    contentId: meta.contentId,
     bytes: meta.bytes,
     labels: meta.labels,
     head: meta.head,

@@ -3,10 +3,9 @@
 // cases come back as "review", with a note that a person must decide them.
 
 import type { Handler } from "hono";
-import type { Model } from "../model/model.ts";
+import type { Model } from "../index.ts";
 import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
-import { decideText } from "./decide-text.ts";
 import { readBodyFields, type BodyFields } from "./read-request-body.ts";
 import { deferWith } from "./reviews/review-loop.ts";
 
@@ -22,11 +21,11 @@ export function moderateRoute(model: Model, config: AppConfig): Handler {
   return async (c) => {
     const body = await readBodyFields(c, ["json", "form", "multipart"]);
     const text = textOfFields(body, config.moderateFields);
-    const decision = decideText(model, text, config.reviewBelow);
+    const decision = model.decide(text, { reviewBelow: config.reviewBelow });
     config.reviewLoop?.observe(deferWith(() => c.executionCtx), { source: "moderate", text, decision, reviewBelow: config.reviewBelow });
     const { tokenCount, truncated } = model.score(text);
     return c.json({
-      version: model.meta.version,
+      contentId: model.meta.contentId,
       action: decision.action,
       label: decision.label,
       score: decision.score,

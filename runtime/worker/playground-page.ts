@@ -3,7 +3,7 @@
 // style and script carry the per-response CSP nonce, so the page needs no 'unsafe-inline'.
 // Results are written with textContent only, never as HTML.
 
-import type { Model } from "../model/model.ts";
+import type { Model } from "../index.ts";
 import { escapeHtml } from "./escape-html.ts";
 
 /**
@@ -46,7 +46,7 @@ export function playgroundPage(model: Model, nonce: string): string {
 <body>
 <main>
 <h1>Sluice playground</h1>
-<p class="model">Model <code id="model-version">${escapeHtml(meta.version)}</code>, labels: ${labels}</p>
+<p class="model">Model <code id="model-content-id">${escapeHtml(meta.contentId)}</code>, labels: ${labels}</p>
 <form id="classify-form" data-label-count="${meta.labels.length}">
   <label for="text">Text to classify</label>
   <textarea id="text" name="text" required aria-describedby="text-hint"></textarea>

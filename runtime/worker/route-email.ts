@@ -10,10 +10,8 @@
 // refuses mail and only EMAIL_ROUTES names destinations: other policy actions of either
 // model ("route" rules, a routing model's "block") do not steer e-mail.
 
-import type { Model } from "../model/model.ts";
-import type { Action } from "../model/policy.ts";
+import type { Action, Model } from "../index.ts";
 import type { EmailConfig } from "./app-config.ts";
-import { decideText } from "./decide-text.ts";
 
 /** The two models of the e-mail handler. */
 export interface EmailModels {
@@ -44,8 +42,8 @@ export interface EmailOutcome {
  * @example routeEmail({ moderation, routing }, { routes: { billing: "billing@shop.example" }, fallback: "triage@shop.example", minScore: 0.7 }, "Refund\n\nI was charged twice")
  */
 export function routeEmail(models: EmailModels, config: EmailConfig, text: string): EmailOutcome {
-  // The policy alone (no extra review floor): its own confidence floor is compiled in.
-  const decision = decideText(models.moderation, text, 0);
+  // The policy alone (no extra review floor): its own review floor is compiled in.
+  const decision = models.moderation.decide(text);
   const moderation = { action: decision.action, label: decision.label, score: decision.score };
   const base = { moderation, topic: null, tokenCount: models.moderation.score(text).tokenCount };
   if (decision.action === "block") {

@@ -10,7 +10,7 @@ import moderationBytes from "../../demo-data/models/worker-contact-form.sluice";
 import routingBytes from "../../demo-data/models/worker-support-topics.sluice";
 // The shadow candidate: a zero-byte file means "no candidate" (scripts/demo-model.ts).
 import candidateBytes from "../../demo-data/models/worker-candidate.sluice";
-import { loadModel } from "../format/load-model.ts";
+import { loadModel } from "../index.ts";
 import { errorResponse } from "./api-error.ts";
 import { appConfigFromEnv, ConfigError } from "./app-config.ts";
 import { createApp, type SluiceApp } from "./create-app.ts";
@@ -21,11 +21,7 @@ import { purgeExpired } from "./reviews/purge-expired.ts";
 import { ReviewLoop } from "./reviews/review-loop.ts";
 import { reviewLoopConfigFromEnv } from "./reviews/review-loop-config.ts";
 
-export { createApp } from "./create-app.ts";
-export type { SluiceApp } from "./create-app.ts";
-export { appConfigFromEnv, resolveAppConfig, DEFAULT_APP_CONFIG, ConfigError } from "./app-config.ts";
-export type { AppConfig, EmailConfig } from "./app-config.ts";
-export type { EmailModels, EmailOutcome } from "./route-email.ts";
+export * from "./index.ts";
 
 const moderationModel = loadModel(moderationBytes);
 const routingModel = loadModel(routingBytes);

@@ -96,7 +96,7 @@ describe("sluice eval on a model with a policy", () => {
     const run = await sluice(["eval", policyModel, contact, "--quiet"]);
     expect(run.stdout).toMatch(/label\s+action\s+threshold\s+review from\s+precision\s+95% interval\s+recall\s+review share/);
     expect(run.stdout).toMatch(/spam\s+block\s+\d\.\d{3}/);
-    expect(run.stdout).toMatch(/decisions: allow \d+\.\d%, review \d+\.\d% \(review bands \d+\.\d%, review rules \d+\.\d%, confidence floor \d+\.\d%\)/);
+    expect(run.stdout).toMatch(/decisions: allow \d+\.\d%, review \d+\.\d% \(review bands \d+\.\d%, review rules \d+\.\d%, review floor \d+\.\d%\)/);
     // 200 validation examples: the build may have skipped temperature scaling (compile/calibrate.ts).
     expect(run.stdout).toMatch(/calibration: ECE \d\.\d{3} (as shipped \(temperature \d\.\d{3}\), \d\.\d{3} before temperature scaling|\(15 bins; no temperature scaling\))/);
   });

@@ -23,7 +23,7 @@ beforeAll(async () => {
 afterAll(() => rmSync(directory, { recursive: true, force: true }));
 
 function statsFile(name: string, labels: Record<string, number>, topScores: Record<string, number>): string {
-  const version = loadModel(readFileSync(modelPath)).meta.version;
+  const version = loadModel(readFileSync(modelPath)).meta.contentId;
   const path = join(directory, name);
   writeFileSync(path, JSON.stringify({ modelVersion: version, hours: [{ hour: 493_000, modelVersion: version, actions: { allow: 90, review: 10 }, labels, topScores }] }));
   return path;

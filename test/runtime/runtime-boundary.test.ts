@@ -1,8 +1,10 @@
 // The architecture rule, enforced: runtime/ runs in Workers, browsers, Deno and Bun, so it
 // imports no Node built-in (node:* or the bare names) and nothing from compiler/ (the
-// dependency points compiler/ → runtime/ only); hono is allowed only in the Worker entry
-// (runtime/worker/worker.ts or runtime/worker/**). Keeping platform code in a few adapter files
-// is common practice, no source; the rule itself is the project's (STYLE.md, point 1).
+// dependency points compiler/ → runtime/ only). The core (everything but runtime/worker/)
+// depends on msgpackr alone and knows nothing of the Worker; only runtime/worker/ may import
+// hono or postal-mime, and it reaches the core only through the public runtime/index.ts.
+// Keeping platform code in a few adapter files is common practice, no source; the rule itself
+// is the project's (STYLE.md, point 1; HOUSE.md).
 //
 // Imports are read with TypeScript's own pre-processor (ts.preProcessFile), which sees
 // static imports, `export … from`, `import type`, dynamic import() and require(), and
@@ -48,13 +50,40 @@ function reachesCompiler(file: string, specifier: string): boolean {
   return target === COMPILER || target.startsWith(COMPILER + sep);
 }
 
-function isHono(specifier: string): boolean {
-  return specifier === "hono" || specifier.startsWith("hono/") || specifier.startsWith("@hono/");
+const WORKER = join(RUNTIME, "worker");
+const RUNTIME_INDEX = join(RUNTIME, "index.ts");
+
+/** The platform packages of the Worker (HTTP and e-mail parsing). */
+function isWorkerPackage(specifier: string): boolean {
+  return specifier === "hono" || specifier.startsWith("hono/") || specifier.startsWith("@hono/") || specifier === "postal-mime" || specifier.startsWith("postal-mime/");
 }
 
 function isWorkerEntry(file: string): boolean {
   const path = relative(RUNTIME, file).split(sep).join("/");
   return path.startsWith("worker/");
+}
+
+function isRelative(specifier: string): boolean {
+  return specifier.startsWith(".") || specifier.startsWith("/");
+}
+
+/** The one third-party package the core may use (the header's MessagePack decoder). */
+function isAllowedCorePackage(specifier: string): boolean {
+  return specifier === "msgpackr" || specifier.startsWith("msgpackr/");
+}
+
+/** A Worker file's import that reaches the core other than through runtime/index.ts. */
+function bypassesPublicSurface(file: string, specifier: string): boolean {
+  if (!isRelative(specifier) || specifier.endsWith(".sluice")) return false; // bundled demo models are data, not code
+  const target = resolve(dirname(file), specifier);
+  return !(target === WORKER || target.startsWith(WORKER + sep)) && target !== RUNTIME_INDEX;
+}
+
+/** A core file's import that reaches into the Worker. */
+function reachesWorker(file: string, specifier: string): boolean {
+  if (!isRelative(specifier)) return false;
+  const target = resolve(dirname(file), specifier);
+  return target === WORKER || target.startsWith(WORKER + sep);
 }
 
 const files = typeScriptFiles(RUNTIME);
@@ -76,9 +105,17 @@ describe("the runtime boundary", () => {
     expect(isNodeBuiltin("msgpackr/unpack")).toBe(false);
     expect(reachesCompiler(join(RUNTIME, "model.ts"), "../compiler/build.ts")).toBe(true);
     expect(reachesCompiler(join(RUNTIME, "model.ts"), "./format.ts")).toBe(false);
-    expect(isHono("hono/cors")).toBe(true);
+    expect(isWorkerPackage("hono/cors")).toBe(true);
+    expect(isWorkerPackage("postal-mime")).toBe(true);
+    expect(isWorkerPackage("msgpackr")).toBe(false);
     expect(isWorkerEntry(join(RUNTIME, "worker", "routes.ts"))).toBe(true);
     expect(isWorkerEntry(join(RUNTIME, "model.ts"))).toBe(false);
+    expect(bypassesPublicSurface(join(WORKER, "create-app.ts"), "../model/model.ts")).toBe(true);
+    expect(bypassesPublicSurface(join(WORKER, "create-app.ts"), "../index.ts")).toBe(false);
+    expect(bypassesPublicSurface(join(WORKER, "create-app.ts"), "./api-error.ts")).toBe(false);
+    expect(reachesWorker(join(RUNTIME, "model", "model.ts"), "../worker/app-config.ts")).toBe(true);
+    expect(isAllowedCorePackage("msgpackr/unpack")).toBe(true);
+    expect(isAllowedCorePackage("hono")).toBe(false);
   });
 
   it("imports no Node built-in module from any runtime file", () => {
@@ -91,10 +128,31 @@ describe("the runtime boundary", () => {
     expect(violations).toEqual([]);
   });
 
-  it("imports hono only from the Worker entry", () => {
+  it("imports hono and postal-mime only from runtime/worker/", () => {
     const violations = files
       .filter((file) => !isWorkerEntry(file))
-      .flatMap((file) => importsOf(file).filter(isHono).map((specifier) => `${name(file)} imports ${specifier}`));
+      .flatMap((file) => importsOf(file).filter(isWorkerPackage).map((specifier) => `${name(file)} imports ${specifier}`));
+    expect(violations).toEqual([]);
+  });
+
+  it("uses no third-party package in the core but msgpackr", () => {
+    const violations = files
+      .filter((file) => !isWorkerEntry(file))
+      .flatMap((file) => importsOf(file).filter((specifier) => !isRelative(specifier) && !isAllowedCorePackage(specifier)).map((specifier) => `${name(file)} imports ${specifier}`));
+    expect(violations).toEqual([]);
+  });
+
+  it("reaches the core from runtime/worker/ only through runtime/index.ts", () => {
+    const workerFiles = files.filter(isWorkerEntry);
+    expect(workerFiles.length).toBeGreaterThanOrEqual(10); // the scan sees the Worker's files
+    const violations = workerFiles.flatMap((file) => importsOf(file).filter((specifier) => bypassesPublicSurface(file, specifier)).map((specifier) => `${name(file)} imports ${specifier}`));
+    expect(violations).toEqual([]);
+  });
+
+  it("imports nothing from runtime/worker/ in the core", () => {
+    const violations = files
+      .filter((file) => !isWorkerEntry(file))
+      .flatMap((file) => importsOf(file).filter((specifier) => reachesWorker(file, specifier)).map((specifier) => `${name(file)} imports ${specifier}`));
     expect(violations).toEqual([]);
   });
 });

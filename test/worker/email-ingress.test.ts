@@ -56,7 +56,7 @@ function expectHeadersFor(delivery: Delivery, text: string): void {
   expect(delivery.headers["x-sluice-score"]).toBe(top.score.toFixed(4));
   expect(delivery.headers["x-sluice-moderation"]).toBe(moderation.decide(text).action);
   expect(delivery.headers["x-sluice-tokens"]).toBe(String(moderation.score(text).tokenCount));
-  expect(delivery.headers["x-sluice-model"]).toBe(`moderation=${moderation.meta.version}; routing=${routing.meta.version}`);
+  expect(delivery.headers["x-sluice-model"]).toBe(`moderation=${moderation.meta.contentId}; routing=${routing.meta.contentId}`);
 }
 
 const BILLING_SUBJECT = "Charged twice for order #A12345";
@@ -198,7 +198,7 @@ describe("the e-mail handler forwards allowed mail to the team of its topic", ()
 describe("the e-mail handler sends mail to the fallback address", () => {
   it("when the moderation policy puts it in the review band, without routing it", async () => {
     const decision = moderation.decide("hello");
-    expect(decision.action).toBe("review"); // precondition: a top score under the policy's confidence floor
+    expect(decision.action).toBe("review"); // precondition: a top score under the policy's review floor
     const delivery = await deliver(rfc822Message(["Content-Type: text/plain; charset=us-ascii"], ["hello"]));
     expect(delivery.status).toBe(200);
     expect(delivery.forwardedTo).toBe(FALLBACK);

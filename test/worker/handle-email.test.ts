@@ -41,7 +41,7 @@ describe("handleEmail", () => {
     expect(outcome.moderation).toEqual({ action: decision.action, label: decision.label, score: decision.score });
   });
 
-  it("sends forwarded headers with their documented names and both model versions", async () => {
+  it("sends forwarded headers with their documented names and both models' content ids", async () => {
     const raw = "Subject: Charged twice\r\nMessage-ID: <2@example.com>\r\nContent-Type: text/plain\r\n\r\nHello, my card was charged twice for order #A12345. Could you refund the second payment?\r\n";
     const { message, calls } = fakeMessage(raw.length, raw);
     await handleEmail(models(), config, message);
@@ -49,6 +49,6 @@ describe("handleEmail", () => {
     // Forwards may only add X-* headers (Email Workers runtime API, EmailMessage.forward).
     expect([...(calls.headers as Headers).keys()].every((name) => name.startsWith("x-"))).toBe(true);
     expect(calls.headers?.get("X-Sluice-Topic")).toBe("billing");
-    expect(calls.headers?.get("X-Sluice-Model")).toBe(`moderation=${demoModel().meta.version}; routing=${routingModel().meta.version}`);
+    expect(calls.headers?.get("X-Sluice-Model")).toBe(`moderation=${demoModel().meta.contentId}; routing=${routingModel().meta.contentId}`);
   });
 });

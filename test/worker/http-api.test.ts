@@ -70,12 +70,12 @@ describe("GET /healthz and GET /v1/model", () => {
   it("reports health with the model version", async () => {
     const response = await worker.fetch("/healthz");
     expect(response.status).toBe(200);
-    expect(await response.json()).toEqual({ status: "ok", version: model.meta.version, labels: 3 });
+    expect(await response.json()).toEqual({ status: "ok", contentId: model.meta.contentId, labels: 3 });
   });
 
   it("describes the model's labels, version, metrics, policy and provenance", async () => {
     const body = (await (await worker.fetch("/v1/model")).json()) as Record<string, unknown>;
-    expect(body.version).toBe(model.meta.version);
+    expect(body.contentId).toBe(model.meta.contentId);
     expect(body.labels).toEqual(["abusive", "ok", "spam"]);
     expect(body.metrics).toEqual(model.meta.metrics);
     // Every provenance key the compiler writes, the fingerprint as its size only.
@@ -108,7 +108,7 @@ describe("GET /healthz and GET /v1/model", () => {
 describe("POST /v1/classify", () => {
   it("returns the labels the library lists by default, with the policy decision and what was read", async () => {
     const body = (await (await worker.fetch("/v1/classify", jsonPost({ text: QUESTION }))).json()) as Record<string, any>;
-    expect(body.version).toBe(model.meta.version);
+    expect(body.contentId).toBe(model.meta.contentId);
     // One default for every surface (runtime/surface-defaults.ts): a softmax head lists its best label.
     expect(body.labels).toEqual(JSON.parse(JSON.stringify(model.classify(QUESTION))));
     expect(body.labels).toHaveLength(1);

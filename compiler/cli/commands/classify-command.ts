@@ -5,7 +5,6 @@
 
 import { readFileSync } from "node:fs";
 import { SURFACE_DEFAULTS } from "../../../runtime/surface-defaults.ts";
-import { decideText } from "../../../runtime/worker/decide-text.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
@@ -33,7 +32,7 @@ export async function classifyCommand(argv: string[]): Promise<number> {
   texts.forEach((text, i) => {
     const ranked = model.classify(text, top === undefined ? {} : { top });
     // The same decision /v1/moderate gives: the model's policy, plus the shared review floor.
-    const decision = decideText(model, text, SURFACE_DEFAULTS.reviewBelow);
+    const decision = model.decide(text, { reviewBelow: SURFACE_DEFAULTS.reviewBelow });
     if (layout) lines.push(layout.row(i + 1, decision.action, ranked, text));
     else {
       const labels = ranked.map((r) => ({ label: r.label, score: round(r.score) }));

@@ -52,7 +52,7 @@ function gatesFromArgs(args: ReturnType<typeof parseArgs>): Parameters<typeof ch
 function describeComparison(dataPath: string, livePath: string, candidatePath: string, c: ModelComparison, gateLines: string[]): string[] {
   const m = c.mcnemar;
   const lines = [
-    `${dataPath}: ${c.examples} examples; live ${livePath} (${c.versions.live}), candidate ${candidatePath} (${c.versions.candidate})`,
+    `${dataPath}: ${c.examples} examples; live ${livePath} (${c.contentIds.live}), candidate ${candidatePath} (${c.contentIds.candidate})`,
     "",
     formatTable(
       ["metric", "live", "candidate", "delta"],

@@ -40,7 +40,7 @@ export async function evalCommand(argv: string[]): Promise<number> {
 }
 
 function describeEvaluation(dataPath: string, model: Model, evaluation: ModelEvaluation): string[] {
-  const lines = [`${dataPath}: ${evaluation.report.examples} examples, model ${model.meta.version} (${model.meta.head} head)`];
+  const lines = [`${dataPath}: ${evaluation.report.examples} examples, model ${model.meta.contentId} (${model.meta.head} head)`];
   if (evaluation.kind === "multilabel") lines.push(...describeMultilabel(evaluation.report));
   else lines.push(...describeSingleLabel(evaluation.report));
   if (evaluation.policy) lines.push("", ...describePolicy(evaluation.policy));
@@ -92,7 +92,7 @@ function describePolicy(policy: PolicyEvaluation): string[] {
   return [
     "policy on this data (precision and recall at each rule's threshold; review share: this rule's band, or all it fires on for a review rule)",
     formatTable(["label", "action", "threshold", "review from", "precision", "95% interval", "recall", "review share"], rows),
-    `decisions: allow ${percent(d.allow)}, review ${percent(d.review)} (review bands ${percent(d.reviewByCause.band)}, review rules ${percent(d.reviewByCause.rule)}, confidence floor ${percent(d.reviewByCause.floor)}), block ${percent(d.block)}, route ${percent(d.route)}`,
+    `decisions: allow ${percent(d.allow)}, review ${percent(d.review)} (review bands ${percent(d.reviewByCause.band)}, review rules ${percent(d.reviewByCause.rule)}, review floor ${percent(d.reviewByCause.floor)}), block ${percent(d.block)}, route ${percent(d.route)}`,
   ];
 }
 

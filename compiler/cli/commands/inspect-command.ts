@@ -29,7 +29,7 @@ export async function inspectCommand(argv: string[]): Promise<number> {
   const f = meta.featurizer;
   const metrics = meta.metrics as { draft?: { accuracy?: number; macroF1?: number }; compiled?: { accuracy?: number; macroF1?: number }; validationExamples?: number };
   const lines = [
-    `${path}: Sluice model ${meta.version}, ${meta.bytes} bytes`,
+    `${path}: Sluice model ${meta.contentId}, ${meta.bytes} bytes`,
     `head ${meta.head}, ${meta.labels.length} labels, dims ${meta.dims}, ${meta.rowCount} feature rows (${meta.rowSpace === "logits" ? "logit rows, output layer multiplied in" : "hidden rows + output layer"}), ${meta.precision}, weighting ${meta.weighting}, temperature ${meta.calibration.temperature.toFixed(3)}`,
     `featurizer: normalization v${f.normalization}, word span ${f.wordSpan}, char span ${f.charMin === 0 ? "off" : `${f.charMin}-${f.charMax}`}, ${f.hashBits} hash bits, seed ${f.hashSeed}, max ${f.maxTokens} tokens`,
     `labels: ${meta.labels.join(", ")}`,
@@ -48,7 +48,7 @@ export async function inspectCommand(argv: string[]): Promise<number> {
     "",
     "policy:",
     ...(meta.policy ? meta.policy.rules.map((rule) => `  ${rule.label}: ${describeRule(rule)}`) : ["  none: every text is allowed with its top label (the review floor of HTTP and classify still applies)"]),
-    ...(meta.policy?.uncertainBelow !== undefined ? [`  any label: review when the top score is below ${meta.policy.uncertainBelow.toFixed(3)}`] : []),
+    ...(meta.policy?.reviewBelow !== undefined ? [`  any label: review when the top score is below ${meta.policy.reviewBelow.toFixed(3)}`] : []),
     "",
     "provenance:",
     ...aligned(provenanceFacts(model.meta.provenance)),

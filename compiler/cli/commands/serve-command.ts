@@ -30,7 +30,7 @@ export async function serveCommand(argv: string[]): Promise<number> {
   });
   const address = server.address() as AddressInfo;
   const shownHost = address.family === "IPv6" ? `[${address.address}]` : address.address;
-  process.stdout.write(`sluice serve: model ${model.meta.version} (${model.labels.join(", ")}) on http://${shownHost}:${address.port}\n`);
+  process.stdout.write(`sluice serve: model ${model.meta.contentId} (${model.labels.join(", ")}) on http://${shownHost}:${address.port}\n`);
   await new Promise<void>((resolve) => {
     const stop = () => {
       process.off("SIGINT", stop);

@@ -48,7 +48,7 @@ export function reviewItemView(row: ReviewRow, model: Model, withDrivers: boolea
     decidedLabel: row.decided_label,
     decidedAt: row.decided_at === null ? null : new Date(row.decided_at).toISOString(),
   };
-  if (withDrivers && row.text !== null && row.model_version === model.meta.version) {
+  if (withDrivers && row.text !== null && row.model_version === model.meta.contentId) {
     const explanation = model.explain(row.text, { top: Math.min(DRIVER_LABELS, model.labels.length), features: DRIVER_FEATURES });
     view.drivers = explanation.labels.map((entry) => ({
       label: entry.label,

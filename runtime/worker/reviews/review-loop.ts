@@ -6,7 +6,6 @@
 
 import type { Model } from "../../index.ts";
 import type { Decision } from "../../index.ts";
-import { decideText } from "../decide-text.ts";
 import type { D1PreparedStatement } from "./d1-types.ts";
 import { keyedHash } from "./keyed-hash.ts";
 import { insertReviewItem, type ReviewSource } from "./review-queue.ts";
@@ -82,14 +81,14 @@ export class ReviewLoop {
       const now = Date.now();
       const scores = this.model.classify(text, { top: Math.min(STORED_SCORES, this.model.labels.length) });
       const top = scores[0] ?? { label: decision.label, score: Number.NaN };
-      const statements: D1PreparedStatement[] = countDecision(db, now, this.model.meta.version, decision.action, top);
+      const statements: D1PreparedStatement[] = countDecision(db, now, this.model.meta.contentId, decision.action, top);
       if (isReview) {
         const { storeText, hashKey } = this.config;
         statements.push(
           insertReviewItem(db, {
             createdAt: now,
             source: observation.source,
-            modelVersion: this.model.meta.version,
+            modelVersion: this.model.meta.contentId,
             text: storeText ? text : null,
             textHash: hashKey === null ? null : await keyedHash(hashKey, text),
             label: decision.label,
@@ -101,11 +100,11 @@ export class ReviewLoop {
         );
       }
       if (this.shadowing && this.candidate !== null) {
-        const other = decideText(this.candidate, text, observation.reviewBelow);
+        const other = this.candidate.decide(text, { reviewBelow: observation.reviewBelow });
         this.counters.shadowScored++;
         const pair = {
-          live: { version: this.model.meta.version, label: decision.label, score: decision.score, action: decision.action },
-          candidate: { version: this.candidate.meta.version, label: other.label, score: other.score, action: other.action },
+          live: { version: this.model.meta.contentId, label: decision.label, score: decision.score, action: decision.action },
+          candidate: { version: this.candidate.meta.contentId, label: other.label, score: other.score, action: other.action },
         };
         statements.push(...countShadowPair(db, now, pair, this.config.storeText ? text : null));
       }

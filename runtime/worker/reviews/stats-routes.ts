@@ -28,7 +28,7 @@ export function statsRoute(model: Model, loop: ReviewLoop | null): Handler {
   return async (c) => {
     const window = hoursWindow(c);
     const isolate = loop === null ? null : { ...loop.counters, since: new Date(loop.counters.since).toISOString() };
-    const base = { modelVersion: model.meta.version, labels: model.labels, ...window, isolate };
+    const base = { modelVersion: model.meta.contentId, labels: model.labels, ...window, isolate };
     const db = loop?.config.db ?? null;
     if (db === null) return c.json({ ...base, database: "missing", queue: null, hours: [] });
     try {
@@ -49,10 +49,10 @@ export function shadowRoute(model: Model, loop: ReviewLoop | null): Handler {
   return async (c) => {
     const window = hoursWindow(c);
     const candidate = loop?.candidate ?? null;
-    const live = { version: model.meta.version, labels: model.labels };
+    const live = { version: model.meta.contentId, labels: model.labels };
     if (candidate === null) return c.json({ live, candidate: null, shadowing: false, ...window, total: 0, agreements: 0, flips: 0, cells: [], hours: [], samples: [] });
     const db = databaseOf(loop);
-    const summary = await withDatabase(() => readShadow(db, { live: model.meta.version, candidate: candidate.meta.version }, window.fromHour, window.toHour, 50));
-    return c.json({ live, candidate: { version: candidate.meta.version, labels: candidate.labels }, shadowing: loop?.shadowing ?? false, ...summary });
+    const summary = await withDatabase(() => readShadow(db, { live: model.meta.contentId, candidate: candidate.meta.contentId }, window.fromHour, window.toHour, 50));
+    return c.json({ live, candidate: { version: candidate.meta.contentId, labels: candidate.labels }, shadowing: loop?.shadowing ?? false, ...summary });
   };
 }

@@ -8,7 +8,10 @@ import { build } from "../../../compiler/build/build.ts";
 import { defaultBuildSettings, type BuildSettings } from "../../../compiler/build/build-settings.ts";
 import type { LabelledText } from "../../../compiler/evaluate/evaluate.ts";
 import { readExamples, type Example } from "../../../compiler/read/index.ts";
+import { collectLabels, splitExamples } from "../../../compiler/build/split-examples.ts";
+import { evaluateModel } from "../../../compiler/evaluate/evaluate.ts";
 import { loadModel } from "../../../runtime/format/load-model.ts";
+import { syntheticLabelData } from "../../fixtures/synthetic-labels.ts";
 
 const SUPPORT_TOPICS = new URL("../../../demo-data/support-topics.csv", import.meta.url).pathname;
 const BUILD_TIME = "2024-05-01T12:00:00.000Z";
@@ -48,21 +51,44 @@ describe("build", () => {
     expect(loadModel(recorded.bytes).meta.metrics.latency).toEqual(recorded.report.latency);
   });
 
-  it("writes different bytes for a different seed", async () => {
-    const first = await build({ examples: subset, settings: quickSettings({ seed: 1 }), buildTime: BUILD_TIME });
-    const other = await build({ examples: subset, settings: quickSettings({ seed: 2 }), buildTime: BUILD_TIME });
-    expect(Buffer.compare(Buffer.from(first.bytes), Buffer.from(other.bytes))).not.toBe(0);
+  it("trains different weights for a different seed, not only a different recorded setting", async () => {
+    // The seed is also recorded in provenance, so different bytes alone would prove nothing:
+    // the scores of the two models must differ.
+    const first = loadModel((await build({ examples: subset, settings: quickSettings({ seed: 1 }), buildTime: BUILD_TIME })).bytes);
+    const other = loadModel((await build({ examples: subset, settings: quickSettings({ seed: 2 }), buildTime: BUILD_TIME })).bytes);
+    const texts = subset.slice(0, 50).map((e) => e.text);
+    const differing = texts.filter((text) => first.score(text).scores.some((score, k) => score !== other.score(text).scores[k]));
+    expect(differing.length).toBeGreaterThan(0);
   });
 
-  it("reports the size of the bytes it returns and a validation accuracy between 0 and 1", async () => {
-    const { bytes, report } = await build({ examples: subset, settings: quickSettings(), buildTime: BUILD_TIME });
+  it("reports the size of the bytes it returns and the accuracy those bytes score on its validation split", async () => {
+    const settings = quickSettings();
+    const { bytes, report } = await build({ examples: subset, settings, buildTime: BUILD_TIME });
     expect(report.bytes).toBe(bytes.length);
-    expect(report.validationExamples).toBeGreaterThan(0);
-    // Accuracy is a fraction of examples (common practice, no source).
-    expect(report.validation.accuracy).toBeGreaterThanOrEqual(0);
-    expect(report.validation.accuracy).toBeLessThanOrEqual(1);
+    // The same stratified split the build made (same seed and holdout), scored through the runtime.
+    const labels = collectLabels(subset);
+    const { validation } = splitExamples({ examples: subset, settings, buildTime: BUILD_TIME }, new Map(labels.map((label, i) => [label, i])), []);
+    expect(report.validationExamples).toBe(validation.length);
+    expect(report.validation.accuracy).toBe(evaluateModel(loadModel(bytes), validation).accuracy);
     // The demo data repeats some short texts on purpose; overlap is the only warning allowed here.
     expect(report.warnings.filter((w) => !/also appear in the training data/.test(w))).toEqual([]);
+  });
+
+  it("fits a tight byte budget even when the measured metrics outgrow the header's reserve, and the metrics describe the written bytes", async () => {
+    // 60 labels with long names: the per-label metrics take more header bytes than the budget
+    // reserved, so rows are dropped after measuring. The written file must fit, load, and carry
+    // the metrics of itself, not of the larger model measured first.
+    const examples = syntheticLabelData(60, 3000, 7).map((e) => ({ text: e.text, labels: e.labels.map((label) => `a-rather-long-label-name-for-the-header-metrics-${label}`) }));
+    const settings = quickSettings({ maxBytes: 60_000, head: "softmax" });
+    const { bytes, report } = await build({ examples, settings, buildTime: BUILD_TIME });
+    expect(bytes.length).toBeLessThanOrEqual(60_000);
+    const model = loadModel(bytes);
+    expect(model.meta.rowCount).toBe(report.rows.kept);
+    const labels = collectLabels(examples);
+    const { validation } = splitExamples({ examples, settings, buildTime: BUILD_TIME }, new Map(labels.map((label, i) => [label, i])), []);
+    const measured = evaluateModel(model, validation);
+    expect(report.validation.accuracy).toBe(measured.accuracy);
+    expect((model.meta.metrics.compiled as { accuracy: number }).accuracy).toBe(Math.round(measured.accuracy * 1e6) / 1e6);
   });
 
   it("warns that metrics are not held out when the holdout is 0", async () => {

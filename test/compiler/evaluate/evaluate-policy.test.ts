@@ -19,7 +19,7 @@ function modelWith(policy: Policy) {
   return handMadeModel({ labels: ["ok", "spam"], words: WORDS, outputWeights: [0, 1], policy });
 }
 
-const BLOCK_WITH_BAND: Policy = { rules: [{ label: "spam", action: "block", threshold: 0.9, reviewFrom: 0.5 }], uncertainBelow: 0.6 };
+const BLOCK_WITH_BAND: Policy = { rules: [{ label: "spam", action: "block", threshold: 0.9, reviewFrom: 0.5 }], reviewBelow: 0.6 };
 
 describe("evaluatePolicy", () => {
   it("gives the precision at the rule's threshold with its 95% Wilson interval", () => {
@@ -52,7 +52,7 @@ describe("evaluatePolicy", () => {
     expect(evaluation?.decisions.reviewByCause).toEqual({ band: 0, rule: 16 / 40, floor: 0 });
   });
 
-  it("splits review decisions into the rule's band and the confidence floor", () => {
+  it("splits review decisions into the rule's band and the review floor", () => {
     // Band: the 4 texts at 0.70. Floor: the 5 texts at 0.45, whose top score (ok, 0.55) is below 0.6.
     const decisions = evaluatePolicy(modelWith(BLOCK_WITH_BAND), EXAMPLES)?.decisions;
     expect(decisions).toEqual({ examples: 40, allow: 15 / 40, review: 9 / 40, block: 16 / 40, route: 0, reviewByCause: { band: 4 / 40, rule: 0, floor: 5 / 40 } });

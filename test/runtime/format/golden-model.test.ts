@@ -58,7 +58,7 @@ describe("the version 1 golden model file", () => {
   it("ends with the CRC-32 of everything before it", () => {
     expect(bytes.length).toBe(1436);
     expect(view.getUint32(bytes.length - 4, true)).toBe(crc32(bytes, 0, bytes.length - 4));
-    expect(loadModel(bytes).meta.version).toBe("622a3296");
+    expect(loadModel(bytes).meta.contentId).toBe("622a3296");
   });
 
   it("scores texts exactly as when it was recorded", () => {
@@ -121,7 +121,7 @@ describe("the version 2 golden model file (logit rows)", () => {
     expect(bytesV2.length).toBe(1364);
     expect(viewV2.getUint32(bytesV2.length - 4, true)).toBe(crc32(bytesV2, 0, bytesV2.length - 4));
     const model = loadModel(bytesV2);
-    expect(model.meta.version).toBe("d859c089");
+    expect(model.meta.contentId).toBe("d859c089");
     expect(model.meta.rowSpace).toBe("logits");
     expect(model.classify("refund my parcel", { top: 2 })).toEqual([
       { label: "billing", score: Math.fround(0.5584453344345093) },
@@ -163,7 +163,7 @@ describe("the version 3 golden model file (unspaced scripts)", () => {
   it("scores texts exactly as when it was recorded", () => {
     expect(bytesV3.length).toBe(1604);
     const model = loadModel(bytesV3);
-    expect(model.meta.version).toBe("204584e4");
+    expect(model.meta.contentId).toBe("204584e4");
     expect(model.classify("refund my parcel", { top: 2 })).toEqual([
       { label: "billing", score: Math.fround(0.550634503364563) },
       { label: "shipping", score: Math.fround(0.449365496635437) },

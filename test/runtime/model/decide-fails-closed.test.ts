@@ -7,7 +7,7 @@ import { describe, expect, it } from "vitest";
 import { decideFromScores, DECISION_FAULT_CODES, loadModel, Model } from "../../../runtime/index.ts";
 
 const golden = loadModel(new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v2.sluice", import.meta.url))));
-const BLOCK_SPAM = { rules: [{ label: "spam", action: "block" as const, threshold: 0.98, reviewFrom: 0.6 }], uncertainBelow: 0.5 };
+const BLOCK_SPAM = { rules: [{ label: "spam", action: "block" as const, threshold: 0.98, reviewFrom: 0.6 }], reviewBelow: 0.5 };
 
 /** The golden model with one header field changed, built without the loader's checks. */
 function brokenModel(change: Record<string, unknown>): Model {

@@ -5,7 +5,6 @@
 import { readdirSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import type { MiniflareOptions } from "miniflare";
-import { decideText } from "../../../runtime/worker/decide-text.ts";
 import type { D1Database } from "../../../runtime/worker/reviews/d1-types.ts";
 import { demoModel, startWorker, type RunningWorker } from "./worker-fixture.ts";
 
@@ -74,7 +73,7 @@ export function reviewTexts(count: number, skip = 0): string[] {
   const model = demoModel();
   const texts = demoMessages()
     .map((m) => m.message)
-    .filter((text) => decideText(model, text, 0.6).action === "review");
+    .filter((text) => model.decide(text, { reviewBelow: 0.6 }).action === "review");
   if (texts.length < skip + count) throw new Error(`only ${texts.length} demo messages go to review; ${skip + count} wanted`);
   return texts.slice(skip, skip + count);
 }

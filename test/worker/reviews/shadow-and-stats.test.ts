@@ -5,7 +5,6 @@
 import { readFileSync } from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { loadModel } from "../../../runtime/index.ts";
-import { decideText } from "../../../runtime/worker/decide-text.ts";
 import { scoreBucket } from "../../../runtime/worker/reviews/traffic-counts.ts";
 import { DEMO_CANDIDATE_MODEL_PATH } from "../../../scripts/demo-model.ts";
 import { demoModel, removeWorkerBundle } from "../helpers/worker-fixture.ts";
@@ -45,12 +44,12 @@ describe("the shadow candidate", () => {
   it("should count agreements and flips exactly as a Node run of both models on the same texts", async () => {
     const live = demoModel();
     const candidate = loadModel(readFileSync(DEMO_CANDIDATE_MODEL_PATH));
-    expect(candidate.meta.version).not.toBe(live.meta.version);
+    expect(candidate.meta.contentId).not.toBe(live.meta.contentId);
     const expected = new Map<string, number>();
     let flips = 0;
     for (const text of TEXTS) {
-      const a = decideText(live, text, 0.6);
-      const b = decideText(candidate, text, 0.6);
+      const a = live.decide(text, { reviewBelow: 0.6 });
+      const b = candidate.decide(text, { reviewBelow: 0.6 });
       const k = key({ liveLabel: a.label, candidateLabel: b.label, liveAction: a.action, candidateAction: b.action });
       expected.set(k, (expected.get(k) ?? 0) + 1);
       if (a.label !== b.label || a.action !== b.action) flips++;
@@ -74,7 +73,7 @@ describe("the shadow candidate", () => {
     const live = demoModel();
     const want = { actions: {} as Record<string, number>, labels: {} as Record<string, number>, topScores: {} as Record<string, number> };
     for (const text of TEXTS) {
-      const decision = decideText(live, text, 0.6);
+      const decision = live.decide(text, { reviewBelow: 0.6 });
       const [top] = live.classify(text, { top: 1 });
       want.actions[decision.action] = (want.actions[decision.action] ?? 0) + 1;
       want.labels[top.label] = (want.labels[top.label] ?? 0) + 1;
