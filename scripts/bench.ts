@@ -10,6 +10,7 @@ import { runComparison } from "./bench/comparison.ts";
 import { comparisonTable, comparisonRatios, comparisonNotes } from "./bench/comparison-print.ts";
 import type { ComparisonRow } from "./bench/comparison-rows.ts";
 import { runCompression, type CompressionRow } from "./bench/compression.ts";
+import { runDefaultBuildMemory, type DefaultBuildMemoryResult } from "./bench/default-build-memory.ts";
 import { runLargeFile, type LargeFileResult } from "./bench/large-file.ts";
 import { runMicro, type MicroResult } from "./bench/micro.ts";
 import { describeMachine, machineInfo, markdownTable, writeResults } from "./bench/results-writer.ts";
@@ -78,6 +79,18 @@ if (!quick) {
   log(`${(large.fileBytes / 1024 ** 3).toFixed(2)} GiB, ${large.lines} lines: built in ${f(large.seconds, 0)} s with peak RSS ${f(large.peakRssMB, 0)} MB (child process), validation accuracy ${f(large.accuracy, 4)}`);
 }
 
+let memory: DefaultBuildMemoryResult[] = [];
+if (!quick) {
+  log("\n## Peak memory of a default build: 100 MB CSV of short texts, 12 labels");
+  // The default (which chooses the path from projected memory) against a forced in-memory
+  // build, one after the other in child processes; peak RSS from getrusage.
+  for (const flags of [[], ["--max-memory", "64g"]]) {
+    const run = await runDefaultBuildMemory(100 * 1024 * 1024, flags);
+    memory.push(run);
+    log(`${flags.length === 0 ? "default" : flags.join(" ")}: ${run.lines} lines, ${run.onDisk ? "on disk" : "in memory"}, ${f(run.seconds, 0)} s, peak RSS ${f(run.peakRssMB, 0)} MB (ceiling 2 × input + 300 = ${f(run.ceilingMB, 0)} MB), accuracy ${f(run.accuracy, 4)}`);
+  }
+}
+
 log("\n## Side by side");
 const comparison: ComparisonRow[] = await runComparison({ quick, log: () => {} });
 const sideBySide = comparisonTable(comparison);
@@ -100,6 +113,8 @@ const markdown = [
   "",
   threadTable,
   "",
+  ...memory.map((run) => `Default build, 100 MB CSV (${run.lines} short texts, 12 labels)${run.flags.length > 0 ? ` with ${run.flags.join(" ")}` : ""}: ${run.onDisk ? "on disk" : "in memory"}, ${f(run.seconds, 0)} s, peak RSS ${f(run.peakRssMB, 0)} MB (ceiling ${f(run.ceilingMB, 0)} MB).`),
+  "",
   large ? `Larger than memory: ${(large.fileBytes / 1024 ** 3).toFixed(2)} GiB JSONL built on disk in ${f(large.seconds, 0)} s, peak RSS ${f(large.peakRssMB, 0)} MB.` : "Larger than memory: skipped (--quick).",
   "",
   "## Side by side",
@@ -110,5 +125,5 @@ const markdown = [
   ...comparisonNotes(comparison),
   "",
 ].join("\n");
-const written = writeResults(quick ? "bench-quick" : "bench", { machine, date: new Date().toISOString(), quick, micro, compression, heads, threads, large, comparison }, markdown);
+const written = writeResults(quick ? "bench-quick" : "bench", { machine, date: new Date().toISOString(), quick, micro, compression, heads, threads, memory, large, comparison }, markdown);
 log(`\nwrote ${written.json} and ${written.markdown}`);

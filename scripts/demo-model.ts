@@ -21,6 +21,9 @@ export const DEMO_MODEL_PATH = join(ROOT, "demo-data", "models", "worker-contact
 /** Where runtime/worker/worker.ts imports the routing model from. */
 export const DEMO_ROUTING_MODEL_PATH = join(ROOT, "demo-data", "models", "worker-support-topics.sluice");
 
+/** Where runtime/worker/worker.ts imports the shadow candidate from (zero bytes = no candidate). */
+export const DEMO_CANDIDATE_MODEL_PATH = join(ROOT, "demo-data", "models", "worker-candidate.sluice");
+
 const MODERATION_DATA_PATH = join(ROOT, "demo-data", "contact-form.jsonl");
 const ROUTING_DATA_PATH = join(ROOT, "demo-data", "support-topics.csv");
 
@@ -75,6 +78,13 @@ export const DEMO_ROUTING_MODEL_ARGS = [
   "--force",
 ];
 
+/**
+ * The demo shadow candidate: the moderation recipe under today's build defaults (TF-IDF
+ * weighting, 5 epochs) instead of the pinned mean weighting and 10 epochs: exactly the kind
+ * of change an operator wants to see on live traffic before promoting it.
+ */
+export const DEMO_CANDIDATE_MODEL_ARGS = DEMO_MODEL_ARGS.filter((arg, i, all) => !["--weighting", "--epochs"].includes(arg) && !["--weighting", "--epochs"].includes(all[i - 1]));
+
 interface DemoModelRecipe {
   path: string;
   data: string;
@@ -84,10 +94,11 @@ interface DemoModelRecipe {
 const RECIPES: readonly DemoModelRecipe[] = [
   { path: DEMO_MODEL_PATH, data: MODERATION_DATA_PATH, args: DEMO_MODEL_ARGS },
   { path: DEMO_ROUTING_MODEL_PATH, data: ROUTING_DATA_PATH, args: DEMO_ROUTING_MODEL_ARGS },
+  { path: DEMO_CANDIDATE_MODEL_PATH, data: MODERATION_DATA_PATH, args: DEMO_CANDIDATE_MODEL_ARGS },
 ];
 
 /**
- * Builds both demo models, each unless it exists and is newer than its data and this recipe
+ * Builds the demo models (moderation, routing, shadow candidate), each unless it exists and is newer than its data and this recipe
  * (or `force`); returns the moderation model's path (the routing one is DEMO_ROUTING_MODEL_PATH).
  * @example ensureDemoModel() // "/…/demo-data/models/worker-contact-form.sluice"
  */

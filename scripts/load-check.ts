@@ -10,18 +10,11 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { Log, LogLevel, Miniflare } from "miniflare";
 import { buildWorkerBundle } from "./build-worker.ts";
+import { integerFlag, percentile } from "./load-options.ts";
 
-function option(name: string, fallback: number, max: number): number {
-  const index = process.argv.indexOf(name);
-  if (index < 0) return fallback;
-  const value = Number(process.argv[index + 1]);
-  if (!Number.isInteger(value) || value < 1 || value > max) throw new Error(`${name}: expected an integer from 1 to ${max}`);
-  return value;
-}
-
-const REQUESTS = option("--requests", 20_000, 200_000);
-const CONCURRENCY = option("--concurrency", 64, 512);
-const SECONDS = option("--seconds", 180, 900);
+const REQUESTS = integerFlag("--requests", 20_000, 200_000);
+const CONCURRENCY = integerFlag("--concurrency", 64, 512);
+const SECONDS = integerFlag("--seconds", 180, 900);
 
 /** Resident set size in KiB of a process, from /proc (Linux). */
 function rssKiB(pid: number | "self"): number | null {
@@ -54,11 +47,6 @@ function memory(): string {
   const workerd = workerdPids().map((pid) => rssKiB(pid));
   const format = (kib: number | null) => (kib === null ? "?" : `${(kib / 1024).toFixed(1)} MiB`);
   return `workerd RSS ${workerd.length > 0 ? workerd.map(format).join(" + ") : "?"}, this process RSS ${format(rssKiB("self"))}`;
-}
-
-function percentile(sorted: Float64Array, p: number): number {
-  // Nearest-rank percentile (common practice, no source).
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
 }
 
 const texts = readFileSync(new URL("../demo-data/contact-form.jsonl", import.meta.url), "utf8")

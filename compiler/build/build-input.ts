@@ -26,6 +26,11 @@ export interface BuildInput {
   /** Which data fields held the text and the label(s), and the separator of several labels in
    * one cell (recorded so eval, classify, compare and report read data the same way). */
   fields?: { text: string[]; label: string; labelSep?: string };
+  /**
+   * Extra training examples (e.g. reviewers' decisions exported from the review queue): they are
+   * never held out, so validation stays the base data's, and each is trained on `repeat` times.
+   */
+  alsoTrain?: { examples: readonly LabelledText[]; repeat: number };
 }
 
 /** What the stages after encoding need (shared by the in-memory and the on-disk paths). */

@@ -1,6 +1,7 @@
 // The stages after encoding: train the draft → measure it → prune and quantize to the budget →
 // calibrate and choose the policy → measure what ships → write → verify.
 
+import { validationTraffic } from "./validation-traffic.ts";
 import { loadModel } from "../../runtime/format/load-model.ts";
 import type { Policy } from "../../runtime/model/policy.ts";
 import { choosePolicy, type PolicyReport } from "../compile/choose-policy.ts";
@@ -111,6 +112,8 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     compiled: roundQuality(compiledQuality),
     ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
     labels: evaluation ? Object.fromEntries(Object.entries(evaluation.labels).map(([label, s]) => [label, { precision: round(s.precision), recall: round(s.recall), f1: round(s.f1), support: s.support }])) : {},
+    // What the Worker's traffic counts will be compared with (population stability in the report).
+    ...(validation.length > 0 ? { traffic: validationTraffic(shipped, validationTexts) } : {}),
   };
   let bytes = writeModel(compiled.contents);
   if (settings.maxBytes > 0 && bytes.length > settings.maxBytes) {

@@ -121,8 +121,11 @@ export const COMMAND_TABLE = {
         title: "input and output",
         options: {
           "--validation": { value: "file", description: "validation data file (instead of --holdout)" },
+          "--also": { value: "file", repeatable: true, description: "more training examples, never held out: e.g. the review queue's export (`text` and `label` fields)" },
+          "--also-weight": { value: "N", default: "1", description: "train on each --also example N times (1-20), so reviewed traffic counts more" },
           "--config": { value: "file", description: "settings file (sluice.config.json, as `sluice tune` writes it); flags override it" },
-          "--on-disk": { default: "above 256 MiB", description: "stream the data through shards on disk (bounded memory, one thread)" },
+          "--on-disk": { default: "when an in-memory build would exceed --max-memory", description: "stream the data through shards on disk (bounded memory, one thread)" },
+          "--max-memory": { value: "SIZE", default: "2 × the data file + 300 MB", description: "memory budget: data whose in-memory build is projected (examples × tokens, from a sample) to need more is built on disk" },
           "--out": { value: "file", default: "model.sluice", description: "output model file" },
           "--force": FORCE,
           "--json": json("the build report as one JSON object"),
@@ -201,6 +204,23 @@ export const COMMAND_TABLE = {
     arguments: "<model> <data>",
     summary: "one self-contained, accessible HTML report with charts and tables",
     groups: [DATA, { title: "output", options: { "--out": { value: "file", default: "report.html", description: "output HTML file" }, "--force": FORCE, "--quiet": QUIET } }],
+  },
+  "traffic-report": {
+    arguments: "<model>",
+    summary: "the Worker's traffic counts against validation (population stability) and the shadow candidate's flips, as HTML",
+    details: ["Reads the JSON answers of GET /v1/stats and GET /v1/shadow (reviewer token) saved to files."],
+    groups: [
+      {
+        title: "input and output",
+        options: {
+          "--stats": { value: "file", description: "the answer of GET /v1/stats?hours=N" },
+          "--shadow": { value: "file", description: "the answer of GET /v1/shadow?hours=N" },
+          "--out": { value: "file", default: "traffic.html", description: "output HTML file" },
+          "--force": FORCE,
+          "--quiet": QUIET,
+        },
+      },
+    ],
   },
   tune: {
     arguments: "<data>",

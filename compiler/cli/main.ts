@@ -20,6 +20,7 @@ const RUNNERS: Record<CommandName, () => Promise<Command>> = {
   inspect: async () => (await import("./commands/inspect-command.ts")).inspectCommand,
   compare: async () => (await import("./commands/compare-command.ts")).compareCommand,
   report: async () => (await import("./commands/report-command.ts")).reportCommand,
+  "traffic-report": async () => (await import("./commands/traffic-report-command.ts")).trafficReportCommand,
   tune: async () => (await import("./commands/tune-command.ts")).tuneCommand,
   serve: async () => (await import("./commands/serve-command.ts")).serveCommand,
 };

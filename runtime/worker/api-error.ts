@@ -7,6 +7,8 @@ export const API_ERROR_CODES = {
   unauthorized: { status: 401, meaning: "a bearer token is required and was missing or wrong" },
   "not-found": { status: 404, meaning: "no such route" },
   "method-not-allowed": { status: 405, meaning: "the route exists but not for this method" },
+  "already-decided": { status: 409, meaning: "the review item has a decision already; a second one is refused" },
+  leased: { status: 409, meaning: "another reviewer holds this review item's lease" },
   "body-too-large": { status: 413, meaning: "the request body is larger than the configured limit" },
   "too-many-texts": { status: 413, meaning: "more texts in one call than the configured limit" },
   "unsupported-media-type": { status: 415, meaning: "the Content-Type is not one the route reads" },
@@ -14,6 +16,7 @@ export const API_ERROR_CODES = {
   "missing-text": { status: 422, meaning: "no text, or only an empty one, was given" },
   "rate-limited": { status: 429, meaning: "too many requests from this client; try again later" },
   "bad-config": { status: 500, meaning: "a configuration variable of the server is invalid" },
+  "reviews-off": { status: 503, meaning: "the reviewer API needs REVIEWER_TOKEN and the REVIEWS database, and one is missing or failing" },
   internal: { status: 500, meaning: "an unexpected error; details are in the server log" },
 } as const;
 

@@ -4,6 +4,7 @@
 
 import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
 import type { RateLimitBinding } from "./platform-types.ts";
+import type { ReviewLoop } from "./reviews/review-loop.ts";
 
 /** Where e-mail goes, by the routing model's topic. */
 export interface EmailConfig {
@@ -32,6 +33,8 @@ export interface AppConfig {
   /** Platform rate limiter; null = no rate limiting. */
   rateLimiter: RateLimitBinding | null;
   email: EmailConfig;
+  /** Review queue, traffic counts and shadow candidate (runtime/worker/reviews/); null = off. */
+  reviewLoop: ReviewLoop | null;
 }
 
 /**
@@ -49,6 +52,7 @@ export const DEFAULT_APP_CONFIG: AppConfig = {
   reviewBelow: SURFACE_DEFAULTS.reviewBelow,
   rateLimiter: null,
   email: { routes: {}, fallback: null, minScore: 0.7 },
+  reviewLoop: null,
 };
 
 /** A configuration variable that cannot be used; the message names the variable. */
@@ -116,6 +120,8 @@ export function appConfigFromEnv(env: Readonly<Record<string, unknown>>): AppCon
       fallback: text("EMAIL_FALLBACK") ?? null,
       minScore: number("EMAIL_MIN_SCORE", 0, 1, false) ?? defaults.email.minScore,
     },
+    // Built by the Worker entry, which holds the models (runtime/worker/worker.ts).
+    reviewLoop: null,
   };
 }
 

@@ -11,6 +11,7 @@ import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
 import { decideText } from "./decide-text.ts";
 import { readBodyFields } from "./read-request-body.ts";
+import { deferWith } from "./reviews/review-loop.ts";
 import { integerOption, numberOption, requireText } from "./text-input.ts";
 
 /** The classification of one text. */
@@ -38,7 +39,11 @@ export function classifyRoute(model: Model, config: AppConfig): Handler {
       const labels = model.classify(text, { top, minScore });
       const { tokenCount, truncated, knownFeatures } = model.score(text);
       const result: TextResult = { labels, tokenCount, truncated, knownFeatures };
-      if (hasPolicy) result.decision = decideText(model, text, config.reviewBelow);
+      if (hasPolicy) {
+        const decision = decideText(model, text, config.reviewBelow);
+        result.decision = decision;
+        config.reviewLoop?.observe(deferWith(() => c.executionCtx), { source: "classify", text, decision, reviewBelow: config.reviewBelow });
+      }
       return result;
     };
     if (body.text !== undefined && body.texts !== undefined) throw new ApiError("invalid-input", 'give either "text" or "texts", not both');

@@ -18,7 +18,8 @@ import { limitRate } from "./limit-rate.ts";
 import { modelRoute } from "./model-route.ts";
 import { moderateRoute } from "./moderate-route.ts";
 import { playgroundPage } from "./playground-page.ts";
-import { requireBearerToken } from "./require-bearer-token.ts";
+import { mountReviewLoop } from "./reviews/mount-review-loop.ts";
+import { separateTokens } from "./reviews/reviewer-token.ts";
 
 export type SluiceApp = Hono<{ Variables: SecureHeadersVariables }>;
 
@@ -67,7 +68,7 @@ export function createApp(model: Model, partialConfig: Partial<AppConfig> = {}):
     app.use("/v1/*", cors({ origin: [...config.corsOrigins], allowMethods: ["GET", "POST", "OPTIONS"], allowHeaders: ["Content-Type", "Authorization"], maxAge: 600 }));
   }
   app.use("/v1/*", limitRate(config.rateLimiter));
-  app.use("/v1/*", requireBearerToken(config.apiToken));
+  app.use("/v1/*", separateTokens(config.apiToken, config.reviewLoop?.config.reviewerToken ?? null));
   app.use(
     "/v1/*",
     bodyLimit({
@@ -89,6 +90,7 @@ export function createApp(model: Model, partialConfig: Partial<AppConfig> = {}):
   app.post("/v1/classify", classifyRoute(model, config));
   app.post("/v1/moderate", moderateRoute(model, config));
   app.post("/v1/explain", explainRoute(model, config));
+  mountReviewLoop(app, model, config.reviewLoop);
   for (const [path, method] of Object.entries(ROUTES)) {
     app.all(path, (c) => errorResponse("method-not-allowed", `${path} answers ${method}, not ${c.req.method}`, { allow: method === "GET" ? "GET, HEAD" : "POST" }));
   }

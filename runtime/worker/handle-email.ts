@@ -17,16 +17,25 @@ import { routeEmail, toFallback, type EmailModels, type EmailOutcome } from "./r
 export const MAX_PARSED_BYTES = 4 * 1024 * 1024;
 
 /**
- * Handles one incoming message; returns what was done.
+ * Handles one incoming message; returns what was done. `onModerated` hears each text the
+ * moderation model decided on (not unreadable or oversized ones).
  * @example export default { email: (message, env) => handleEmail({ moderation, routing }, appConfigFromEnv(env).email, message) }
  */
-export async function handleEmail(models: EmailModels, config: EmailConfig, message: IncomingEmailMessage): Promise<EmailOutcome> {
+export async function handleEmail(models: EmailModels, config: EmailConfig, message: IncomingEmailMessage, onModerated?: (text: string, outcome: EmailOutcome) => void): Promise<EmailOutcome> {
   let outcome: EmailOutcome;
   if (message.rawSize > MAX_PARSED_BYTES) {
     outcome = unclassified(config, `the message has ${message.rawSize} bytes, more than the ${MAX_PARSED_BYTES} this handler parses`);
   } else {
     const text = await readMessageText(message);
     outcome = text === "" ? unclassified(config, "the message has no readable text") : routeOrFallback(models, config, text);
+    // The review queue sees every moderated text (it stores the review band, counts the rest).
+    if (text !== "") {
+      try {
+        onModerated?.(text, outcome);
+      } catch (error) {
+        console.error("sluice: the review queue could not take the message; it is handled anyway", error);
+      }
+    }
   }
   if (outcome.kind === "reject") {
     await message.setReject(outcome.reason);

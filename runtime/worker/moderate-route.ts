@@ -8,6 +8,7 @@ import { ApiError } from "./api-error.ts";
 import type { AppConfig } from "./app-config.ts";
 import { decideText } from "./decide-text.ts";
 import { readBodyFields, type BodyFields } from "./read-request-body.ts";
+import { deferWith } from "./reviews/review-loop.ts";
 
 /** Carried by every /v1/moderate response: automated decisions in the review band need a person. */
 export const HUMAN_REVIEW_NOTE =
@@ -22,6 +23,7 @@ export function moderateRoute(model: Model, config: AppConfig): Handler {
     const body = await readBodyFields(c, ["json", "form", "multipart"]);
     const text = textOfFields(body, config.moderateFields);
     const decision = decideText(model, text, config.reviewBelow);
+    config.reviewLoop?.observe(deferWith(() => c.executionCtx), { source: "moderate", text, decision, reviewBelow: config.reviewBelow });
     const { tokenCount, truncated } = model.score(text);
     return c.json({
       version: model.meta.version,

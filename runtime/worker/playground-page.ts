@@ -4,6 +4,7 @@
 // Results are written with textContent only, never as HTML.
 
 import type { Model } from "../model/model.ts";
+import { escapeHtml } from "./escape-html.ts";
 
 /**
  * The page's HTML for one response.
@@ -145,10 +146,4 @@ export function playgroundPage(model: Model, nonce: string): string {
 </body>
 </html>
 `;
-}
-
-const HTML_ESCAPES: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" };
-
-function escapeHtml(text: string): string {
-  return text.replace(/[&<>"']/g, (character) => HTML_ESCAPES[character]);
 }

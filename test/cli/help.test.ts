@@ -34,7 +34,8 @@ describe("sluice --help", () => {
         if (spec.default !== undefined) expect(stdout, `${name} ${flag}`).toContain(`(default ${spec.default})`);
       }
     }
-  }, 60_000);
+    // One CLI start per command (ten of them), each several seconds on a busy 2-core machine.
+  }, 180_000);
 
   it("should exit 2, as bad usage, when run without a command, listing the commands on stderr", async () => {
     const result = await sluice([]);

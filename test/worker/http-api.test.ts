@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { summarizeTrainingFingerprint } from "../../compiler/read/text-fingerprints.ts";
 import type { Model } from "../../runtime/model/model.ts";
 import { WORKER_GZIP_CEILING } from "../../scripts/build-worker.ts";
-import { DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH } from "../../scripts/demo-model.ts";
+import { DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH, DEMO_CANDIDATE_MODEL_PATH } from "../../scripts/demo-model.ts";
 import { demoModel, jsonPost, startWorker, workerBundle, removeWorkerBundle, type RunningWorker } from "./helpers/worker-fixture.ts";
 
 const VARS = { MODERATE_FIELDS: "subject,message", MAX_TEXTS: "5", MAX_BODY_BYTES: "65536" };
@@ -55,13 +55,13 @@ function largestCollection(value: unknown): number {
 }
 
 describe("the Worker bundle", () => {
-  it("stays under the 1 MiB gzip ceiling and carries both models as separate Data modules", () => {
+  it("stays under the 1 MiB gzip ceiling and carries the live, routing and candidate models as separate Data modules", () => {
     const bundle = workerBundle();
     expect(bundle.gzipBytes).toBeLessThanOrEqual(WORKER_GZIP_CEILING);
-    // The uploaded Data modules are the two model files themselves, byte for byte.
+    // The uploaded Data modules are the three model files themselves, byte for byte.
     const shipped = bundle.modules.filter((path) => path.endsWith(".sluice")).map((path) => readFileSync(path));
-    const models = [DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH].map((path) => readFileSync(path));
-    expect(shipped).toHaveLength(2);
+    const models = [DEMO_MODEL_PATH, DEMO_ROUTING_MODEL_PATH, DEMO_CANDIDATE_MODEL_PATH].map((path) => readFileSync(path));
+    expect(shipped).toHaveLength(3);
     for (const file of models) expect(shipped.some((module) => module.equals(file))).toBe(true);
   });
 });

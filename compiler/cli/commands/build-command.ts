@@ -1,15 +1,17 @@
 // `sluice build <data> --out model.sluice`: read → train → prune → quantize → verify → write.
 
-import { readFileSync, statSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { basename } from "node:path";
 import { build } from "../../build/build.ts";
 import type { BuildReport } from "../../build/build-report.ts";
 import type { CalibrationReport } from "../../compile/calibrate.ts";
-import { BUILD_SETTINGS, parseSetting, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
+import { BUILD_SETTINGS, parseSetting, parseSize, resolveBuildSettings, SettingError, type BuildSettings } from "../../build/build-settings.ts";
+import { chooseBuildPath } from "../choose-build-path.ts";
 import { createBuildProgress } from "../progress-bar.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { optionsOf } from "../command-table.ts";
-import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
+import { parseArgs, UsageError, valueOf, type ParsedArgs } from "../parse-args.ts";
+import type { Example } from "../../read/index.ts";
 import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256OfFile, type FieldDefaults } from "../read-data.ts";
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { createReadReport } from "../../read/index.ts";
@@ -18,8 +20,6 @@ import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
 
-/** Data files above this size are built on disk (bounded memory) without being asked. */
-const ON_DISK_ABOVE_BYTES = 256 * 1024 * 1024;
 
 /** Runs the build command; returns the exit code. */
 export async function buildCommand(argv: string[]): Promise<number> {
@@ -45,8 +45,10 @@ export async function buildCommand(argv: string[]): Promise<number> {
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));
   const validation = validationPath ? await readWithProgress(validationPath, args, fields, quiet, progress) : undefined;
+  const alsoTrain = await readAlsoTrain(args, quiet);
   const common = {
     validation,
+    ...(alsoTrain !== undefined ? { alsoTrain } : {}),
     settings,
     buildTime: buildTime(),
     dataSha256: await sha256OfFile(dataPath),
@@ -56,9 +58,12 @@ export async function buildCommand(argv: string[]): Promise<number> {
     onMessage: say,
     fields: { text: fields.textFields, label: fields.labelField, ...(fields.labelSep !== undefined ? { labelSep: fields.labelSep } : {}) },
   };
-  const onDisk = args.switches.get("--on-disk") === true || statSync(dataPath).size > ON_DISK_ABOVE_BYTES;
+  const choice = chooseBuildPath(dataPath, settings, { forceOnDisk: args.switches.get("--on-disk") === true, maxMemoryBytes: maxMemoryOf(args) });
+  say(choice.reason);
+  const onDisk = choice.onDisk;
   let result: Awaited<ReturnType<typeof build>>;
   if (onDisk) {
+    if (alsoTrain !== undefined) throw new UsageError("--also needs an in-memory build; it cannot be combined with --on-disk (nor with data the build chose to stream from disk)");
     if (settings.threads > 1) say("note: building on disk trains with one thread");
     const readReport = createReadReport(dataPath);
     progress.stage(`reading and preparing ${dataPath} on disk`);
@@ -74,9 +79,39 @@ export async function buildCommand(argv: string[]): Promise<number> {
   progress.done();
   for (const warning of report.warnings) process.stderr.write(`warning: ${warning}\n`);
   writeFileAtomic(out, bytes, { force });
-  if (json) process.stdout.write(`${JSON.stringify({ out, ...report })}\n`);
-  else process.stdout.write(`${describeBuild(out, report)}\n`);
+  // getrusage's maximum resident set size (kilobytes on Linux, process.resourceUsage docs).
+  const peakMemoryBytes = process.resourceUsage().maxRSS * 1024;
+  const memory = { onDisk, buildPath: choice.reason, peakMemoryBytes, projectedMemoryBytes: Math.round(choice.projectedBytes), memoryBudgetBytes: choice.budgetBytes };
+  if (json) process.stdout.write(`${JSON.stringify({ out, ...report, ...memory })}\n`);
+  else process.stdout.write(`${describeBuild(out, report)}\npeak memory ${Math.round(peakMemoryBytes / 1024 ** 2)} MB (RSS), built ${choice.reason}\n`);
   return 0;
+}
+
+/**
+ * The --also files (read in the review export's layout: `text` and `label`, whatever the base
+ * data's fields) and --also-weight, the number of times each of their examples is trained on.
+ */
+async function readAlsoTrain(args: ParsedArgs, quiet: boolean): Promise<{ examples: Example[]; repeat: number } | undefined> {
+  const paths = args.values.get("--also") ?? [];
+  const rawWeight = valueOf(args, "--also-weight");
+  const repeat = rawWeight === undefined ? 1 : Number(rawWeight);
+  if (!Number.isInteger(repeat) || repeat < 1 || repeat > 20) throw new UsageError(`--also-weight: expected an integer from 1 to 20, got "${rawWeight}"`);
+  if (paths.length === 0) {
+    if (rawWeight !== undefined) throw new UsageError("--also-weight needs --also <file>");
+    return undefined;
+  }
+  const examples: Example[] = [];
+  for (const path of paths) examples.push(...(await readData(path, parseArgs([], {}), READ_DEFAULTS, true, quiet)).examples);
+  return { examples, repeat };
+}
+
+/** --max-memory SIZE in bytes, or undefined for the default budget. */
+function maxMemoryOf(args: ReturnType<typeof parseArgs>): number | undefined {
+  const text = valueOf(args, "--max-memory");
+  if (text === undefined) return undefined;
+  const bytes = parseSize(text);
+  if (bytes === null || bytes <= 0) throw new UsageError(`--max-memory: expected a size like 512m or 2g, got "${text}"`);
+  return bytes;
 }
 
 /** Reads a data file with a status line, then prints what was read. */
