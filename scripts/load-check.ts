@@ -8,9 +8,10 @@
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { Log, LogLevel, Miniflare } from "miniflare";
+import { Miniflare } from "miniflare";
 import { buildWorkerBundle } from "./build-worker.ts";
-import { integerFlag, percentile } from "./load-options.ts";
+import { integerFlag, loopbackWorkerOptions } from "./load-options.ts";
+import { nearestRank } from "./bench/single-call-timing.ts";
 
 const REQUESTS = integerFlag("--requests", 20_000, 200_000);
 const CONCURRENCY = integerFlag("--concurrency", 64, 512);
@@ -56,17 +57,7 @@ const texts = readFileSync(new URL("../demo-data/contact-form.jsonl", import.met
 
 const outdir = mkdtempSync(join(tmpdir(), "sluice-load-"));
 const bundle = buildWorkerBundle({ outdir });
-const miniflare = new Miniflare({
-  modules: true,
-  scriptPath: bundle.entry,
-  modulesRoot: bundle.outdir,
-  modulesRules: [{ type: "Data", include: ["**/*.sluice"] }],
-  compatibilityDate: "2026-04-26",
-  cf: false,
-  host: "127.0.0.1",
-  port: 0,
-  log: new Log(LogLevel.WARN),
-});
+const miniflare = new Miniflare(loopbackWorkerOptions(bundle));
 const url = new URL("/v1/classify", await miniflare.ready).href;
 process.stdout.write(`load check: ${REQUESTS} requests, concurrency ${CONCURRENCY}, limit ${SECONDS} s, against ${url}\n`);
 process.stdout.write(`before: ${memory()}\n`);
@@ -105,7 +96,7 @@ try {
   process.stdout.write(`after:  ${memory()}\n`);
   process.stdout.write(`completed ${completed} of ${REQUESTS} in ${elapsed.toFixed(1)} s${completed < REQUESTS ? " (stopped at the time limit)" : ""}\n`);
   process.stdout.write(`errors: ${errors === 0 ? "none (zero-error check passed)" : `${errors} (${[...failures].map(([kind, n]) => `${kind}: ${n}`).join(", ")})`}\n`);
-  process.stdout.write(`latency p50 ${percentile(sorted, 50).toFixed(2)} ms, p99 ${percentile(sorted, 99).toFixed(2)} ms, max ${sorted[sorted.length - 1].toFixed(2)} ms\n`);
+  process.stdout.write(`latency p50 ${nearestRank(sorted, 0.5).toFixed(2)} ms, p99 ${nearestRank(sorted, 0.99).toFixed(2)} ms, max ${sorted[sorted.length - 1].toFixed(2)} ms\n`);
   process.stdout.write(`throughput ${(completed / elapsed).toFixed(0)} requests/s\n`);
   if (errors > 0 || completed < REQUESTS) process.exitCode = 1;
 } finally {

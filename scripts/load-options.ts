@@ -1,4 +1,7 @@
-// What the load scripts share: integer options from the command line and the percentile.
+// What the load scripts share: integer options from the command line, and the Miniflare
+// settings that serve the built Worker bundle on a loopback port.
+
+import { Log, LogLevel, type MiniflareOptions } from "miniflare";
 
 /**
  * `--name N` from process.argv, an integer in [1, max], or `fallback` when absent.
@@ -13,9 +16,21 @@ export function integerFlag(name: string, fallback: number, max: number): number
 }
 
 /**
- * The nearest-rank percentile of sorted values (common practice, no source).
- * @example percentile(Float64Array.from([1, 2, 3, 4]), 50) // 2
+ * Miniflare options serving a built Worker bundle on 127.0.0.1 (a free port), as the load
+ * scripts run it; `extra` adds bindings or databases.
+ * @example new Miniflare(loopbackWorkerOptions(bundle, { bindings: { CANDIDATE: "off" } }))
  */
-export function percentile(sorted: Float64Array, p: number): number {
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
+export function loopbackWorkerOptions(bundle: { entry: string; outdir: string }, extra: Partial<MiniflareOptions> = {}): MiniflareOptions {
+  return {
+    modules: true,
+    scriptPath: bundle.entry,
+    modulesRoot: bundle.outdir,
+    modulesRules: [{ type: "Data", include: ["**/*.sluice"] }],
+    compatibilityDate: "2026-04-26",
+    cf: false,
+    host: "127.0.0.1",
+    port: 0,
+    log: new Log(LogLevel.WARN),
+    ...extra,
+  };
 }

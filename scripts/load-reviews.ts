@@ -10,11 +10,12 @@
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { Log, LogLevel, Miniflare } from "miniflare";
+import { Miniflare } from "miniflare";
 import { loadModel } from "../runtime/index.ts";
 import type { D1Database } from "../runtime/worker/reviews/d1-types.ts";
 import { buildWorkerBundle } from "./build-worker.ts";
-import { integerFlag, percentile } from "./load-options.ts";
+import { integerFlag, loopbackWorkerOptions } from "./load-options.ts";
+import { nearestRank } from "./bench/single-call-timing.ts";
 import { DEMO_MODEL_PATH } from "./demo-model.ts";
 
 const REQUESTS = integerFlag("--requests", 20_000, 200_000);
@@ -59,19 +60,12 @@ interface RunResult {
 }
 
 async function run(mode: "off" | "on"): Promise<RunResult> {
-  const miniflare = new Miniflare({
-    modules: true,
-    scriptPath: bundle.entry,
-    modulesRoot: bundle.outdir,
-    modulesRules: [{ type: "Data", include: ["**/*.sluice"] }],
-    compatibilityDate: "2026-04-26",
-    cf: false,
-    host: "127.0.0.1",
-    port: 0,
-    log: new Log(LogLevel.WARN),
-    bindings: mode === "on" ? { REVIEWER_TOKEN, REVIEW_STORE_TEXT: "on", CANDIDATE: "shadow" } : { REVIEWER_TOKEN, CANDIDATE: "off" },
-    ...(mode === "on" ? { d1Databases: ["REVIEWS"] } : {}),
-  });
+  const miniflare = new Miniflare(
+    loopbackWorkerOptions(bundle, {
+      bindings: mode === "on" ? { REVIEWER_TOKEN, REVIEW_STORE_TEXT: "on", CANDIDATE: "shadow" } : { REVIEWER_TOKEN, CANDIDATE: "off" },
+      ...(mode === "on" ? { d1Databases: ["REVIEWS"] } : {}),
+    }),
+  );
   try {
     const base = await miniflare.ready;
     let db: D1Database | null = null;
@@ -138,7 +132,7 @@ async function run(mode: "off" | "on"): Promise<RunResult> {
       drainSeconds = (performance.now() - drainStart) / 1000;
     }
     for (const [kind, n] of kinds) process.stdout.write(`  ${mode}: ${n} × ${kind}\n`);
-    return { mode, completed, seconds, errors, p50: percentile(sorted, 50), p99: percentile(sorted, 99), expectedReviews, storedReviews, lost, drainSeconds };
+    return { mode, completed, seconds, errors, p50: nearestRank(sorted, 0.5), p99: nearestRank(sorted, 0.99), expectedReviews, storedReviews, lost, drainSeconds };
   } finally {
     await miniflare.dispose();
   }
