@@ -30,20 +30,7 @@ from sklearn.linear_model import LogisticRegression
 from sklearn.metrics import accuracy_score, f1_score
 from sklearn.pipeline import make_pipeline
 
-
-def read_jsonl(path):
-    texts, labels = [], []
-    with open(path, encoding="utf-8") as handle:
-        for number, line in enumerate(handle, start=1):
-            if not line.strip():
-                continue
-            try:
-                record = json.loads(line)
-                texts.append(record["text"])
-                labels.append(record["label"])
-            except (ValueError, KeyError) as error:
-                sys.exit(f"{path}, line {number}: expected a JSON object with \"text\" and \"label\" ({error})")
-    return texts, labels
+from jsonl_examples import read_jsonl
 
 
 def percentile(sorted_values, fraction):
@@ -59,8 +46,8 @@ def main():
     if len(sys.argv) > 3:
         with open(sys.argv[3], encoding="utf-8") as handle:
             options.update(json.load(handle))
-    train_texts, train_labels = read_jsonl(sys.argv[1])
-    test_texts, test_labels = read_jsonl(sys.argv[2])
+    train_texts, train_labels, _ = read_jsonl(sys.argv[1])
+    test_texts, test_labels, _ = read_jsonl(sys.argv[2])
 
     pipeline = make_pipeline(
         TfidfVectorizer(ngram_range=(1, 2), sublinear_tf=True, min_df=2),

@@ -35,27 +35,13 @@ from sklearn.pipeline import make_pipeline, make_union
 from sklearn.preprocessing import MultiLabelBinarizer
 from sklearn.svm import LinearSVC
 
+from jsonl_examples import read_jsonl
+
 GRIDS = {
     "LogisticRegression": ("C", [1.0, 10.0, 100.0]),
     "LinearSVC": ("C", [0.1, 1.0, 10.0]),
     "MultinomialNB": ("alpha", [0.01, 0.1, 1.0]),
 }
-
-
-def read_jsonl(path):
-    texts, labels, groups = [], [], []
-    with open(path, encoding="utf-8") as handle:
-        for number, line in enumerate(handle, start=1):
-            if not line.strip():
-                continue
-            try:
-                record = json.loads(line)
-                texts.append(record["text"])
-                labels.append(record["label"])
-                groups.append(str(record.get("group", number)))
-            except (ValueError, KeyError) as error:
-                sys.exit(f"{path}, line {number}: expected a JSON object with \"text\" and \"label\" ({error})")
-    return texts, labels, groups
 
 
 def in_validation(group):
