@@ -4,13 +4,13 @@
 // the caller asks for names (explanations). The parts: normalize.ts, tokenizer.ts (chunks and
 // tokens), char-grams.ts (character n-grams), this file (word n-grams and the whole pass).
 
-import { emitCharGrams } from "./char-grams.ts";
+import { emitCharGrams, emitWordCharGrams } from "./char-grams.ts";
 import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
 import { deriveFeatureSeeds } from "./feature-seeds.ts";
 import type { FeaturizerSettings } from "./featurizer-settings.ts";
 import { murmur3String, murmur3Words } from "./murmur3.ts";
 import { normalizeText } from "./normalize.ts";
-import { URL } from "./token-kinds.ts";
+import { URL, WORD } from "./token-kinds.ts";
 import { Tokenizer } from "./tokenizer.ts";
 
 export { createFeatureBuffer, type FeatureBuffer } from "./feature-buffer.ts";
@@ -33,7 +33,8 @@ export class Featurizer {
   private readonly charSeed: number;
   private readonly ngramSeed: number;
   private readonly anyUrlHash: number;
-  private readonly tokens: Tokenizer;
+  /** The tokens of the last text featurized (a model's word cache reads its words from here). */
+  readonly tokens: Tokenizer;
 
   constructor(settings: FeaturizerSettings) {
     this.settings = { ...settings };
@@ -56,9 +57,11 @@ export class Featurizer {
 
   /**
    * Writes the features of `text` into `out` (reset first). Allocation-free for ASCII text
-   * once the buffers have grown to fit, unless `out.names` is set.
+   * once the buffers have grown to fit, unless `out.names` is set. With `wordsApart` the
+   * features of each word token itself (its slot and its character n-grams) are left out, for
+   * the caller to add word by word with wordFeatures (a model's word cache does).
    */
-  featurize(text: string, out: FeatureBuffer): void {
+  featurize(text: string, out: FeatureBuffer, wordsApart = false): void {
     out.count = 0;
     out.truncated = false;
     const withNames = out.names !== null;
@@ -67,10 +70,22 @@ export class Featurizer {
     tokens.tokenize(normalizeText(text), withNames, withNames || this.settings.charMin > 0);
     out.tokenCount = tokens.tokenTotal;
     out.truncated = tokens.hasMoreText;
-    this.emitFeatures(out);
+    this.emitFeatures(out, wordsApart);
   }
 
-  private emitFeatures(out: FeatureBuffer): void {
+  /**
+   * Appends the features of word token `t` of the last text (its slot, then its character
+   * n-grams): what `featurize(text, out, true)` left out for it.
+   */
+  wordFeatures(t: number, out: FeatureBuffer): void {
+    const tokens = this.tokens;
+    const first = tokens.tokenCharStart[t];
+    pushSlot(out, tokens.tokenHashes[t] & this.mask);
+    const { charMin, charMax } = this.settings;
+    if (charMin > 0) emitWordCharGrams(tokens.wordChars, first, tokens.tokenCharEnd[t] - first, charMin, charMax, this.charSeed, this.mask, out);
+  }
+
+  private emitFeatures(out: FeatureBuffer, wordsApart: boolean): void {
     const mask = this.mask;
     const tokens = this.tokens;
     const count = tokens.tokenTotal;
@@ -78,6 +93,7 @@ export class Featurizer {
     const kinds = tokens.tokenKinds;
     const names = out.names;
     for (let t = 0; t < count; t++) {
+      if (wordsApart && kinds[t] === WORD) continue;
       pushSlot(out, hashes[t] & mask);
       if (names) names.push(tokens.tokenNames[t]);
       if (kinds[t] === URL) {
@@ -94,6 +110,6 @@ export class Featurizer {
       }
     }
     const { charMin, charMax } = this.settings;
-    if (charMin > 0) emitCharGrams(tokens, charMin, charMax, this.charSeed, mask, out);
+    if (charMin > 0 && !wordsApart) emitCharGrams(tokens, charMin, charMax, this.charSeed, mask, out);
   }
 }

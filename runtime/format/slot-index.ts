@@ -34,19 +34,6 @@ export class SlotIndex {
     return -1;
   }
 
-  /** The slot stored at `row` (for explanations and inspection). */
-  slotOf(row: number): number {
-    // Binary search over the bucket directory for the bucket holding `row`.
-    let low = 0;
-    let high = this.buckets.length - 2;
-    while (low < high) {
-      const middle = (low + high + 1) >>> 1;
-      if (this.buckets[middle] <= row) low = middle;
-      else high = middle - 1;
-    }
-    return ((low << this.lowBits) | this.keys[row]) >>> 0;
-  }
-
   /** Null when the index is well formed, else what is wrong (checked once at load). */
   static check(buckets: Uint16Array | Uint32Array, keys: Uint8Array | Uint16Array, lowBits: number): string | null {
     return wellFormed(buckets, keys, lowBits) ? null : SlotIndex.describeProblem(buckets, keys, lowBits);

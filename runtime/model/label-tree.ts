@@ -133,23 +133,6 @@ export class LabelTree {
     heapProbability[i] = p;
   }
 
-  /** Inner nodes on the path from the root to `label`, each with the direction taken (+1 first, -1 second). */
-  pathOf(label: number): { nodes: number[]; directions: number[] } {
-    const nodes: number[] = [];
-    const directions: number[] = [];
-    let node = label;
-    while (this.parents[node] >= 0) {
-      const parent = this.parents[node];
-      const inner = parent - this.labelCount;
-      nodes.push(inner);
-      directions.push(this.children[2 * inner] === node ? 1 : -1);
-      node = parent;
-    }
-    nodes.reverse();
-    directions.reverse();
-    return { nodes, directions };
-  }
-
   /** Null when `children` describes a proper binary tree over `labelCount` leaves, else the problem. */
   static check(children: Int32Array, labelCount: number): string | null {
     if (children.length !== 2 * (labelCount - 1)) return `expected ${2 * (labelCount - 1)} child entries`;

@@ -16,11 +16,12 @@ import { LabelTree, type NodeScorer } from "./label-tree.ts";
 import type { ClassifyOptions, DecideOptions, Explanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
 import { rankLabels } from "./rank-labels.ts";
 import { accumulateFloat, accumulateInt8, accumulateLogitRowsInt8, logitsFloat, logitsInt8 } from "./scoring-kernels.ts";
+import { WordFeatureCache, type RowSummer } from "./word-feature-cache.ts";
 
 export type { ClassifyOptions, DecideOptions, Explanation, FeatureContribution, LabelExplanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
 
 
-export class Model implements NodeScorer {
+export class Model implements NodeScorer, RowSummer {
   readonly meta: ModelMeta;
   readonly labels: readonly string[];
   readonly parts: ModelParts;
@@ -36,6 +37,11 @@ export class Model implements NodeScorer {
   private lastTokenCount = 0;
   private lastTruncated = false;
   private lastKnown = 0;
+  private lastWeight = 0;
+  /** Row sums by word, for models with character n-grams (else null); see word-feature-cache.ts. */
+  readonly wordCache: WordFeatureCache | null;
+  /** Off only in tests and benchmarks: every feature of every word is then looked up on each call. */
+  useWordCache = true;
 
   constructor(parts: ModelParts) {
     const header = parts.header;
@@ -47,6 +53,7 @@ export class Model implements NodeScorer {
     this.logits = new Float64Array(header.outputCount);
     this.scores = new Float32Array(header.labels.length);
     this.tree = parts.tree ? new LabelTree(parts.tree, header.labels.length) : null;
+    this.wordCache = header.featurizer.charMin > 0 ? new WordFeatureCache(header.rowSpace === "logits" ? header.outputCount : header.dims) : null;
     this.topLabelScratch = new Int32Array(header.labels.length);
     this.topProbabilityScratch = new Float64Array(header.labels.length);
     this.meta = {
@@ -160,11 +167,7 @@ export class Model implements NodeScorer {
 
   /** Tree head, top k: best-first search, scoring only the inner nodes it visits. */
   private classifyTree(text: string, top: number, minScore: number): LabelScore[] {
-    const buffer = this.buffer;
-    this.featurizer.featurize(text, buffer);
-    this.lastTokenCount = buffer.tokenCount;
-    this.lastTruncated = buffer.truncated;
-    this.computeHidden(buffer.slots, buffer.count);
+    this.computeHidden(text);
     const found = (this.tree as LabelTree).topLabels(top, this, this.topLabelScratch, this.topProbabilityScratch);
     const result: LabelScore[] = [];
     for (let i = 0; i < found; i++) {
@@ -189,46 +192,59 @@ export class Model implements NodeScorer {
 
   /** Scores of `text` in the shared scratch array (valid until the next call). */
   private scoreText(text: string): Float32Array {
-    const buffer = this.buffer;
-    this.featurizer.featurize(text, buffer);
-    this.lastTokenCount = buffer.tokenCount;
-    this.lastTruncated = buffer.truncated;
     if (this.parts.header.rowSpace === "logits") {
-      this.computeLogitsFromRows(buffer.slots, buffer.count);
+      // Logit rows: the mean of the known features' rows is the logit vector, before bias and temperature.
+      const logits = this.logits;
+      this.sumFeatures(text, logits);
+      const inverse = this.lastWeight > 0 ? 1 / this.lastWeight : 0;
+      const inverseTemperature = 1 / this.parts.header.calibration.temperature;
+      const bias = this.parts.outputBias;
+      for (let k = 0; k < logits.length; k++) logits[k] = (logits[k] * inverse + bias[k]) * inverseTemperature;
     } else {
-      this.computeHidden(buffer.slots, buffer.count);
+      this.computeHidden(text);
       this.computeLogits();
     }
     this.computeScores();
     return this.scores;
   }
 
-  /** Logit rows: the mean of the known features' rows is the logit vector, before bias and temperature. */
-  private computeLogitsFromRows(slots: Uint32Array, count: number): void {
-    const { index, rows, rowScales, rowWeights, outputBias } = this.parts;
-    const logits = this.logits;
-    logits.fill(0);
-    const totals = rows instanceof Int8Array
-      ? accumulateLogitRowsInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, logits)
-      : accumulateFloat(index, rows, rowWeights, slots, count, logits);
+  /**
+   * out = Σ weight · row over the known features of `text` (not yet divided by the total
+   * weight, which is left in lastWeight). With character n-grams, words come from the word cache.
+   */
+  private sumFeatures(text: string, out: Float64Array): void {
+    const buffer = this.buffer;
+    const wordCache = this.useWordCache ? this.wordCache : null;
+    this.featurizer.featurize(text, buffer, wordCache !== null);
+    this.lastTokenCount = buffer.tokenCount;
+    this.lastTruncated = buffer.truncated;
+    out.fill(0);
+    const totals = this.sumRows(buffer.slots, buffer.count, out);
     this.lastKnown = totals.known;
-    const inverse = totals.weight > 0 ? 1 / totals.weight : 0;
-    const inverseTemperature = 1 / this.parts.header.calibration.temperature;
-    for (let k = 0; k < logits.length; k++) logits[k] = (logits[k] * inverse + outputBias[k]) * inverseTemperature;
+    this.lastWeight = totals.weight;
+    if (wordCache !== null) {
+      wordCache.addWords(this.featurizer, this, out);
+      this.lastKnown += wordCache.known;
+      this.lastWeight += wordCache.weight;
+    }
   }
 
-  private computeHidden(slots: Uint32Array, count: number): void {
+  /** Adds the rows of `slots` into `out`, which starts at zero (RowSummer, for the word cache too). */
+  sumRows(slots: Uint32Array, count: number, out: Float64Array): { known: number; weight: number } {
     const { index, rows, rowScales, rowWeights } = this.parts;
-    const hidden = this.hidden;
-    hidden.fill(0);
     // One loop per storage type keeps each loop's typed-array reads monomorphic even when a
     // process holds int8 and float32 models at once (the compiler does).
-    const totals = rows instanceof Int8Array
-      ? accumulateInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, hidden)
-      : accumulateFloat(index, rows, rowWeights, slots, count, hidden);
-    this.lastKnown = totals.known;
-    if (totals.weight > 0) {
-      const inverse = 1 / totals.weight;
+    if (!(rows instanceof Int8Array)) return accumulateFloat(index, rows, rowWeights, slots, count, out);
+    return this.parts.header.rowSpace === "logits"
+      ? accumulateLogitRowsInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, out)
+      : accumulateInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, out);
+  }
+
+  private computeHidden(text: string): void {
+    const hidden = this.hidden;
+    this.sumFeatures(text, hidden);
+    if (this.lastWeight > 0) {
+      const inverse = 1 / this.lastWeight;
       for (let j = 0; j < hidden.length; j++) hidden[j] *= inverse;
     }
   }

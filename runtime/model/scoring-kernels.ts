@@ -34,7 +34,7 @@ export function accumulateInt8(index: SlotIndex, rows: Int8Array, scales: Float3
 }
 
 /**
- * logits = Σ weight · scale · row over the features with a kept int8 logit row, for up to 8
+ * logits += Σ weight · scale · row over the features with a kept int8 logit row, for up to 8
  * labels. Logit rows are narrow, so the sums live in local variables, which the JIT keeps in
  * registers, and the tests on `width` never change inside the loop, so they predict
  * perfectly: 4.5 µs instead of 6.3 µs for 620 rows × 6 labels (measured).
@@ -69,14 +69,14 @@ export function accumulateLogitRowsInt8(index: SlotIndex, rows: Int8Array, scale
     if (width > 6) a6 += c * rows[base + 6];
     if (width > 7) a7 += c * rows[base + 7];
   }
-  logits[0] = a0;
-  if (width > 1) logits[1] = a1;
-  if (width > 2) logits[2] = a2;
-  if (width > 3) logits[3] = a3;
-  if (width > 4) logits[4] = a4;
-  if (width > 5) logits[5] = a5;
-  if (width > 6) logits[6] = a6;
-  if (width > 7) logits[7] = a7;
+  logits[0] += a0;
+  if (width > 1) logits[1] += a1;
+  if (width > 2) logits[2] += a2;
+  if (width > 3) logits[3] += a3;
+  if (width > 4) logits[4] += a4;
+  if (width > 5) logits[5] += a5;
+  if (width > 6) logits[6] += a6;
+  if (width > 7) logits[7] += a7;
   accumulated.known = known;
   accumulated.weight = total;
   return accumulated;
