@@ -20,7 +20,7 @@ export type { Action, Decision, DecisionFault, DecisionFaultCode, Policy, Policy
 export { createFeaturizer, createFeatureBuffer, Featurizer } from "./featurizer/featurizer.ts";
 export type { FeatureBuffer, FeaturizerSettings } from "./featurizer/featurizer.ts";
 export { normalizeText, NORMALIZATION_VERSION } from "./featurizer/normalize.ts";
-export { murmur3String, murmur3Bytes } from "./featurizer/murmur3.ts";
+export { murmur3String } from "./featurizer/murmur3.ts";
 export { crc32 } from "./format/crc32.ts";
 export { FORMAT_VERSION } from "./format/format.ts";
 export type { ModelHeader, HeadKind, Weighting, Precision } from "./format/model-header.ts";

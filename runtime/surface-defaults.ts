@@ -1,12 +1,11 @@
 // The defaults every surface shares: the library (`model.classify`, `model.explain`), the
 // CLI, `sluice serve` and the Worker read them from here, so the same model answers the same
 // question the same way wherever it is asked.
-
+//
+// Labels `classify` lists when `top` is not given (library, CLI, HTTP) need no entry: that is
+// the model's own choice (the best label for a softmax or tree head, every label above its
+// threshold for a sigmoid head; Model.classify), and the CLI's help says so in words.
 export const SURFACE_DEFAULTS = {
-  /** Labels `classify` lists when `top` is not given (library, CLI, HTTP): the model's own
-   * choice — the best label for a softmax or tree head, every label above its threshold for a
-   * sigmoid head. */
-  classifyTop: "the best label (sigmoid head: every label above its threshold)",
   /** Top labels `explain` explains (CLI, HTTP, library). */
   explainTop: 1,
   /** Features listed per explained label (CLI, HTTP, library). */

@@ -150,7 +150,7 @@ export const COMMAND_TABLE = {
       {
         title: "output",
         options: {
-          "--top": { value: "N", default: SURFACE_DEFAULTS.classifyTop, description: "labels listed per text" },
+          "--top": { value: "N", default: "the best label (sigmoid head: every label above its threshold)", description: "labels listed per text" },
           "--json": json("JSON Lines, one object per text ({ text, labels, decision })"),
           "--quiet": QUIET,
         },

@@ -10,7 +10,6 @@ const PIECE = 4096;
  * @example charCodesToString(new Uint16Array([104, 105]), 0, 2) // "hi"
  */
 export function charCodesToString(codes: Uint16Array, start: number, end: number): string {
-  if (end - start <= PIECE) return String.fromCharCode.apply(null, codes.subarray(start, end) as unknown as number[]);
   const pieces: string[] = [];
   for (let at = start; at < end; at += PIECE) {
     pieces.push(String.fromCharCode.apply(null, codes.subarray(at, Math.min(end, at + PIECE)) as unknown as number[]));

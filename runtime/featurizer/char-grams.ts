@@ -1,32 +1,17 @@
 // Character n-grams inside words: each word is framed by an edge byte at both ends, and every
 // piece of charMin..charMax characters is hashed with MurmurHash3 over its UTF-8 bytes. A
-// hot loop over char codes, so the UTF-8 encoding is written inline. The featurizer emits
-// them for every word of a text; a model's word cache (runtime/model/word-gram-sums.ts) asks
-// for one word at a time, through the same function, so both see the same slots.
+// hot loop over char codes, so the UTF-8 encoding is written inline. The featurizer calls it
+// for every word of a text, or for one word when a model's word cache
+// (runtime/model/word-feature-cache.ts) asks, so both see the same slots.
 
-import { reserveSlots, type FeatureBuffer } from "./feature-buffer.ts";
+import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
 import { finish, mixBlock, mixTail } from "./murmur3.ts";
-import { WORD, WORD_EDGE } from "./token-kinds.ts";
-import type { Tokenizer } from "./tokenizer.ts";
-
-/** Appends the character n-grams of every WORD token the tokenizer just read. */
-export function emitCharGrams(tokens: Tokenizer, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer): void {
-  for (let t = 0; t < tokens.tokenTotal; t++) {
-    if (tokens.tokenKinds[t] !== WORD) continue;
-    const first = tokens.tokenCharStart[t];
-    emitWordCharGrams(tokens.wordChars, first, tokens.tokenCharEnd[t] - first, charMin, charMax, seed, mask, out);
-  }
-}
+import { WORD_EDGE } from "./token-kinds.ts";
 
 /** Appends the character n-grams of the word `chars[first .. first + wordLength)`. */
 export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer): void {
   const names = out.names;
   const framedLength = wordLength + 2; // the word with an edge byte on each side
-  // Room for every piece first, so the loop below writes into locals (at most one piece per
-  // start and length).
-  reserveSlots(out, out.count + framedLength * (charMax - charMin + 1));
-  const slots = out.slots;
-  let count = out.count;
   for (let start = 0; start < framedLength; start++) {
     // MurmurHash3 of the UTF-8 bytes of framed[start .. start + length), for each length,
     // in one pass: the running state is read out (without disturbing it) at each length.
@@ -57,11 +42,10 @@ export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength:
       }
       if (length < charMin) continue;
       if (length === 1 && isEdge) continue; // an edge alone says nothing
-      slots[count++] = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes) & mask;
+      pushSlot(out, finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes) & mask);
       if (names) names.push(charGramName(chars, first, wordLength, start, length));
     }
   }
-  out.count = count;
 }
 
 /** A character n-gram as people read it: "·" marks the start or end of the word. */

@@ -16,16 +16,10 @@ export function createFeatureBuffer(capacity = 1024, withNames = false): Feature
 }
 
 export function pushSlot(out: FeatureBuffer, slot: number): void {
-  if (out.count === out.slots.length) reserveSlots(out, out.count + 1);
+  if (out.count === out.slots.length) {
+    const grown = new Uint32Array(out.slots.length * 2);
+    grown.set(out.slots);
+    out.slots = grown;
+  }
   out.slots[out.count++] = slot;
-}
-
-/** Grows `out.slots` (doubling) until it holds at least `total` slots. */
-export function reserveSlots(out: FeatureBuffer, total: number): void {
-  if (out.slots.length >= total) return;
-  let size = Math.max(1, out.slots.length);
-  while (size < total) size *= 2;
-  const grown = new Uint32Array(size);
-  grown.set(out.slots);
-  out.slots = grown;
 }

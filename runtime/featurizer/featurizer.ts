@@ -4,7 +4,7 @@
 // the caller asks for names (explanations). The parts: normalize.ts, tokenizer.ts (chunks and
 // tokens), char-grams.ts (character n-grams), this file (word n-grams and the whole pass).
 
-import { emitCharGrams, emitWordCharGrams } from "./char-grams.ts";
+import { emitWordCharGrams } from "./char-grams.ts";
 import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
 import { deriveFeatureSeeds } from "./feature-seeds.ts";
 import type { FeaturizerSettings } from "./featurizer-settings.ts";
@@ -33,26 +33,20 @@ export class Featurizer {
   private readonly charSeed: number;
   private readonly ngramSeed: number;
   private readonly anyUrlHash: number;
-  /** The tokens of the last text featurized (a model's word cache reads its words from here). */
+  /**
+   * The tokens of the last text featurized (a model's word cache reads its words here; tests
+   * turn the tokenizer's fast path off with `tokens.plainChunks = false`).
+   */
   readonly tokens: Tokenizer;
 
   constructor(settings: FeaturizerSettings) {
     this.settings = { ...settings };
-    this.mask = settings.hashBits >= 32 ? 0xffffffff : (1 << settings.hashBits) - 1;
+    this.mask = (2 ** settings.hashBits - 1) | 0; // all ones at 32 bits: `& -1` keeps every bit
     const seeds = deriveFeatureSeeds(settings.hashSeed);
     this.charSeed = seeds.char;
     this.ngramSeed = seeds.ngram;
     this.anyUrlHash = murmur3String("[url]", seeds.shape);
     this.tokens = new Tokenizer(seeds, settings.maxTokens, settings.unspacedScripts === true);
-  }
-
-  /** Off only in tests, to check that the fast path reads exactly what the general reader reads. */
-  get plainChunks(): boolean {
-    return this.tokens.plainChunks;
-  }
-
-  set plainChunks(on: boolean) {
-    this.tokens.plainChunks = on;
   }
 
   /**
@@ -78,11 +72,15 @@ export class Featurizer {
    * n-grams): what `featurize(text, out, true)` left out for it.
    */
   wordFeatures(t: number, out: FeatureBuffer): void {
+    pushSlot(out, this.tokens.tokenHashes[t] & this.mask);
+    if (this.settings.charMin > 0) this.charGrams(t, out);
+  }
+
+  /** Appends the character n-grams of word token `t`. */
+  private charGrams(t: number, out: FeatureBuffer): void {
     const tokens = this.tokens;
     const first = tokens.tokenCharStart[t];
-    pushSlot(out, tokens.tokenHashes[t] & this.mask);
-    const { charMin, charMax } = this.settings;
-    if (charMin > 0) emitWordCharGrams(tokens.wordChars, first, tokens.tokenCharEnd[t] - first, charMin, charMax, this.charSeed, this.mask, out);
+    emitWordCharGrams(tokens.wordChars, first, tokens.tokenCharEnd[t] - first, this.settings.charMin, this.settings.charMax, this.charSeed, this.mask, out);
   }
 
   private emitFeatures(out: FeatureBuffer, wordsApart: boolean): void {
@@ -109,7 +107,6 @@ export class Featurizer {
         if (names) names.push(tokens.tokenNames.slice(t, t + n).join(" "));
       }
     }
-    const { charMin, charMax } = this.settings;
-    if (charMin > 0 && !wordsApart) emitCharGrams(tokens, charMin, charMax, this.charSeed, mask, out);
+    if (this.settings.charMin > 0 && !wordsApart) for (let t = 0; t < count; t++) if (kinds[t] === WORD) this.charGrams(t, out);
   }
 }

@@ -86,10 +86,6 @@ export function loadModel(input: Uint8Array | ArrayBuffer): Model {
 function toBytes(input: Uint8Array | ArrayBuffer): Uint8Array {
   if (input instanceof Uint8Array) return input;
   if (input instanceof ArrayBuffer) return new Uint8Array(input);
-  if (ArrayBuffer.isView(input)) {
-    const viewInput = input as ArrayBufferView;
-    return new Uint8Array(viewInput.buffer, viewInput.byteOffset, viewInput.byteLength);
-  }
   throw new ModelFormatError("bad-magic", `expected the model as a Uint8Array or ArrayBuffer, got ${input === null ? "null" : typeof input}`);
 }
 
@@ -219,22 +215,11 @@ function buildParts(bytes: Uint8Array, header: ModelHeader, entries: Map<number,
   };
 }
 
+/** The typed array of each element type: a section is one view over the file's bytes. */
+const VIEWS = { u8: Uint8Array, i8: Int8Array, u16: Uint16Array, u32: Uint32Array, f32: Float32Array, i32: Int32Array };
+
 function view(bytes: Uint8Array, entry: SectionEntry, element: keyof typeof ELEMENT, count: number) {
-  const offset = bytes.byteOffset + entry.offset;
-  switch (element) {
-    case "u8":
-      return new Uint8Array(bytes.buffer, offset, count);
-    case "i8":
-      return new Int8Array(bytes.buffer, offset, count);
-    case "u16":
-      return new Uint16Array(bytes.buffer, offset, count);
-    case "u32":
-      return new Uint32Array(bytes.buffer, offset, count);
-    case "f32":
-      return new Float32Array(bytes.buffer, offset, count);
-    case "i32":
-      return new Int32Array(bytes.buffer, offset, count);
-  }
+  return new VIEWS[element](bytes.buffer as ArrayBuffer, bytes.byteOffset + entry.offset, count);
 }
 
 const ROW_SCALES = Float32Array.from({ length: 256 }, (_, code) => rowScaleOfCode(code));

@@ -38,10 +38,11 @@ export class Model implements NodeScorer, RowSummer {
   private lastTruncated = false;
   private lastKnown = 0;
   private lastWeight = 0;
-  /** Row sums by word, for models with character n-grams (else null); see word-feature-cache.ts. */
-  readonly wordCache: WordFeatureCache | null;
-  /** Off only in tests and benchmarks: every feature of every word is then looked up on each call. */
-  useWordCache = true;
+  /**
+   * Row sums by word, for models with character n-grams (else null); see word-feature-cache.ts.
+   * Tests and benchmarks set it to null to look every feature of every word up on each call.
+   */
+  wordCache: WordFeatureCache | null;
 
   constructor(parts: ModelParts) {
     const header = parts.header;
@@ -167,7 +168,7 @@ export class Model implements NodeScorer, RowSummer {
 
   /** Tree head, top k: best-first search, scoring only the inner nodes it visits. */
   private classifyTree(text: string, top: number, minScore: number): LabelScore[] {
-    this.computeHidden(text);
+    this.meanOfRows(text, this.hidden);
     const found = (this.tree as LabelTree).topLabels(top, this, this.topLabelScratch, this.topProbabilityScratch);
     const result: LabelScore[] = [];
     for (let i = 0; i < found; i++) {
@@ -195,17 +196,25 @@ export class Model implements NodeScorer, RowSummer {
     if (this.parts.header.rowSpace === "logits") {
       // Logit rows: the mean of the known features' rows is the logit vector, before bias and temperature.
       const logits = this.logits;
-      this.sumFeatures(text, logits);
-      const inverse = this.lastWeight > 0 ? 1 / this.lastWeight : 0;
+      this.meanOfRows(text, logits);
       const inverseTemperature = 1 / this.parts.header.calibration.temperature;
       const bias = this.parts.outputBias;
-      for (let k = 0; k < logits.length; k++) logits[k] = (logits[k] * inverse + bias[k]) * inverseTemperature;
+      for (let k = 0; k < logits.length; k++) logits[k] = (logits[k] + bias[k]) * inverseTemperature;
     } else {
-      this.computeHidden(text);
+      this.meanOfRows(text, this.hidden);
       this.computeLogits();
     }
     this.computeScores();
     return this.scores;
+  }
+
+  /** out = the weighted mean of the rows of the known features of `text` (zero when none is known). */
+  private meanOfRows(text: string, out: Float64Array): void {
+    this.sumFeatures(text, out);
+    if (this.lastWeight > 0) {
+      const inverse = 1 / this.lastWeight;
+      for (let j = 0; j < out.length; j++) out[j] *= inverse;
+    }
   }
 
   /**
@@ -214,7 +223,7 @@ export class Model implements NodeScorer, RowSummer {
    */
   private sumFeatures(text: string, out: Float64Array): void {
     const buffer = this.buffer;
-    const wordCache = this.useWordCache ? this.wordCache : null;
+    const wordCache = this.wordCache;
     this.featurizer.featurize(text, buffer, wordCache !== null);
     this.lastTokenCount = buffer.tokenCount;
     this.lastTruncated = buffer.truncated;
@@ -223,7 +232,7 @@ export class Model implements NodeScorer, RowSummer {
     this.lastKnown = totals.known;
     this.lastWeight = totals.weight;
     if (wordCache !== null) {
-      wordCache.addWords(this.featurizer, this, out);
+      wordCache.addWords(this.featurizer, this, out, buffer); // the text's features are summed: its buffer is free
       this.lastKnown += wordCache.known;
       this.lastWeight += wordCache.weight;
     }
@@ -238,15 +247,6 @@ export class Model implements NodeScorer, RowSummer {
     return this.parts.header.rowSpace === "logits"
       ? accumulateLogitRowsInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, out)
       : accumulateInt8(index, rows, rowScales as Float32Array, rowWeights, slots, count, out);
-  }
-
-  private computeHidden(text: string): void {
-    const hidden = this.hidden;
-    this.sumFeatures(text, hidden);
-    if (this.lastWeight > 0) {
-      const inverse = 1 / this.lastWeight;
-      for (let j = 0; j < hidden.length; j++) hidden[j] *= inverse;
-    }
   }
 
   private computeLogits(): void {

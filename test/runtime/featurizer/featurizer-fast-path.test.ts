@@ -15,7 +15,7 @@ const SETTINGS: FeaturizerSettings[] = [
 
 function featuresOf(settings: FeaturizerSettings, plainChunks: boolean, texts: string[], withNames: boolean): string[] {
   const featurizer = createFeaturizer(settings);
-  featurizer.plainChunks = plainChunks;
+  featurizer.tokens.plainChunks = plainChunks;
   const buffer = createFeatureBuffer(16, withNames);
   return texts.map((text) => {
     featurizer.featurize(text, buffer);
