@@ -109,7 +109,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   fingerprint: { flag: "--fingerprint", kind: "boolean", default: true, description: "store a Bloom filter (~1 byte per training text) so eval can warn about overlap with training data (--no-fingerprint leaves it out)" },
   nearDuplicates: { flag: "--near-duplicates", kind: "enum", values: ["together", "apart"], default: "together", description: "together: texts that differ only in case, digits, punctuation or spacing stay on one side of the validation split, so validation is not scored on near-copies of training texts; apart: split them like any other rows" },
   searchTime: { flag: "--search-time", kind: "seconds", min: 0, max: 86400, default: "auto", defaultText: "auto: 10 s + 8 s per million training tokens, at most 2m", placeholder: "TIME", description: "time the build may spend choosing epochs, learning rate, character n-grams and weighting on the validation split: seconds (30, 30s, 2m), auto (scaled with the data) or 0 (no search: the table's defaults)" },
-  maxUs: { flag: "--max-us", kind: "float", min: 0, max: 1e6, default: 0, description: "the build's search skips settings whose classify time (µs per validation text, measured on this machine) exceeds this (0 = no limit)" },
+  maxUs: { flag: "--max-us", kind: "float", min: 0, max: 1e6, default: 0, description: "the build's search skips settings whose compiled model takes longer than this to classify a 300-token validation text (µs, measured on this machine; 0 = no limit)" },
 };
 
 /** Settings with every default filled in. */

@@ -4,9 +4,9 @@
 // improved for a few epochs), so the number of epochs comes with every candidate. Candidates
 // are tried one change at a time from the best so far (coordinate ascent): character n-grams,
 // then the other weighting, then a larger and a smaller learning rate. A candidate replaces the
-// best only when its validation macro-F1 is higher; one that classifies more than twice as
-// slowly as the best word-only candidate must gain at least one point of macro-F1 (a rule of
-// this project: speed is what users came for), and one slower than --max-us is never chosen.
+// best only when its validation macro-F1 is higher; one whose compiled model classifies more
+// than twice as slowly as the best word-only candidate's must gain at least one point of
+// macro-F1, and one slower than --max-us is never chosen (candidate-latency.ts).
 // Explicit settings are never changed. The plan is fixed in advance, so a seed gives the same
 // choice every time, unless the time budget runs out (the report then says so).
 
@@ -23,6 +23,7 @@ import { trainDraft } from "../train/train-draft.ts";
 import { featurizerSettingsOf } from "./base-header.ts";
 import { rankRows, rowImportance, selectRows, subsetDraft } from "../compile/prune.ts";
 import { rowBytes } from "./fit-rows-to-budget.ts";
+import { candidateMicroseconds, latencyProblem } from "./candidate-latency.ts";
 import type { BuildSettings } from "./build-settings.ts";
 
 /** Longest schedule a candidate trains on when epochs are not given; early stopping ends most runs far sooner. */
@@ -31,9 +32,6 @@ export const SEARCH_MAX_EPOCHS = 40;
 export const PATIENCE = 3;
 /** Character n-gram lengths the search tries (inside words, and over unspaced scripts). */
 export const SEARCH_CHAR_SPAN: [number, number] = [1, 4];
-/** A slower candidate (more than SLOWDOWN_LIMIT × the word-only time) must gain this much macro-F1. */
-export const SLOW_CANDIDATE_GAIN = 0.01;
-export const SLOWDOWN_LIMIT = 2;
 
 export interface SearchCandidate {
   /** What this candidate changed, e.g. "char n-grams 2-4". */
@@ -46,7 +44,7 @@ export interface SearchCandidate {
   epochs: number;
   /** Epochs actually run before early stopping. */
   epochsRun: number;
-  /** Featurize + score µs per validation text with the float draft (a proxy of classify time). */
+  /** µs per classify call of the 300-token validation text, compiled as shipped (candidate-latency.ts). */
   microseconds: number;
   seconds: number;
   verdict: string;
@@ -151,15 +149,11 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
       return;
     }
     const candidate = run(name, settings);
-    const reference = wordOnly ?? best;
-    const slow = reference !== candidate && candidate.microseconds > SLOWDOWN_LIMIT * reference.microseconds;
-    const needed = slow ? Math.max(best.macroF1, reference.macroF1 + SLOW_CANDIDATE_GAIN) : best.macroF1;
-    if (job.settings.maxUs > 0 && candidate.microseconds > job.settings.maxUs) {
-      candidate.verdict = `rejected: ${candidate.microseconds.toFixed(1)} µs per text is above --max-us ${job.settings.maxUs}`;
-    } else if (!(candidate.macroF1 > needed) || (candidate.macroF1 === needed && candidate.accuracy <= best.accuracy)) {
-      candidate.verdict = slow && candidate.macroF1 > best.macroF1
-        ? `rejected: ${(candidate.microseconds / reference.microseconds).toFixed(1)}× slower than word-only for less than ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1`
-        : `rejected: macro-F1 ${candidate.macroF1.toFixed(4)} is not above ${best.macroF1.toFixed(4)}`;
+    const slowness = candidate.macroF1 > best.macroF1 ? latencyProblem(candidate, wordOnly ?? best, job.settings.maxUs) : null;
+    if (slowness !== null) {
+      candidate.verdict = `rejected: ${slowness}`;
+    } else if (!(candidate.macroF1 > best.macroF1)) {
+      candidate.verdict = `rejected: macro-F1 ${candidate.macroF1.toFixed(4)} is not above ${best.macroF1.toFixed(4)}`;
     } else {
       candidate.verdict = `chosen: macro-F1 ${candidate.macroF1.toFixed(4)} > ${best.macroF1.toFixed(4)}`;
       best.verdict = best.verdict === "starting point" || best.verdict.startsWith("chosen") ? `replaced by ${name}` : best.verdict;
@@ -214,6 +208,7 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
   let epochsRun = 0;
   let verdict = "";
   let diverged: TrainingDivergedError | null = null;
+  const keep = rowsWithinBudget(settings, head, job.labels.length, job.train.length);
   try {
     trainDraft(draft, trainRows, { epochs: fixedEpochs ? settings.epochs : SEARCH_MAX_EPOCHS, learningRate: settings.learningRate, seed: settings.seed }, {
       paths,
@@ -234,7 +229,6 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
     // n-grams) loses more there. Score the trained draft pruned to the rows the budget keeps and
     // take the loss off its best epoch's scores (measured: unpruned drafts favoured character
     // n-grams on SpamAssassin that scored 3 points worse once compiled into 1 MiB).
-    const keep = rowsWithinBudget(settings, head, job.labels.length, job.train.length);
     if (keep < draft.slots.length) {
       const full = scoreDraft(draft, validationRows, paths);
       const pruned = subsetDraft(draft, selectRows(rankRows(rowImportance(draft)), keep));
@@ -255,27 +249,11 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
     loss: best.loss,
     epochs: fixedEpochs ? settings.epochs : best.epoch,
     epochsRun,
-    microseconds: classifyMicroseconds(settings, job.validation, draft, paths),
+    microseconds: diverged === null ? candidateMicroseconds(draft, settings, head, keep, job.validation) : NaN,
     seconds: (performance.now() - started) / 1000,
     verdict,
     diverged,
   };
-}
-
-/** µs per text to featurize and score up to 200 validation texts with the draft (best of 3 passes). */
-function classifyMicroseconds(settings: BuildSettings, validation: readonly LabelledText[], draft: ReturnType<typeof createDraft>, paths: ReturnType<typeof treePaths> | null): number {
-  const texts = validation.slice(0, 200).map((e) => e.text);
-  if (texts.length === 0) return 0;
-  const featurizer = createFeaturizer(featurizerSettingsOf(settings));
-  const labels = texts.map(() => [] as number[]);
-  let bestSeconds = Infinity;
-  for (let pass = 0; pass < 3; pass++) {
-    const started = performance.now();
-    const encoded = mapToRows(encodeTexts(featurizer, texts, labels), draft.slots, settings.hashBits);
-    scoreDraft(draft, { ...encoded, labelOffsets: new Uint32Array(texts.length + 1).fill(0), labelList: new Int32Array(1) }, paths);
-    bestSeconds = Math.min(bestSeconds, (performance.now() - started) / 1000);
-  }
-  return (bestSeconds * 1e6) / texts.length;
 }
 
 /**
