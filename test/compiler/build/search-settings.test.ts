@@ -64,8 +64,8 @@ describe("search defaults", () => {
     expect(dimsForLabels(2)).toBe(24);
     expect(dimsForLabels(40)).toBe(32);
     expect(dimsForLabels(456)).toBe(48);
-    expect(autoSearchSeconds(0)).toBe(10);
-    expect(autoSearchSeconds(1_500_000)).toBe(22);
+    expect(autoSearchSeconds(0)).toBe(15);
+    expect(autoSearchSeconds(1_500_000)).toBe(30);
     expect(autoSearchSeconds(1e9)).toBe(120);
   });
 });
