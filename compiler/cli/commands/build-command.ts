@@ -229,8 +229,8 @@ function describeValidation(report: BuildReport): string[] {
     lines.push("", `settings search (${search.seconds.toFixed(1)} s of ${search.budgetSeconds.toFixed(0)} s${search.explicit.length > 0 ? `; fixed by you: ${search.explicit.join(", ")}` : ""}):`);
     lines.push(
       formatTable(
-        ["candidate", "accuracy", "macro-F1", "epochs", "µs/300 tokens", "verdict"],
-        search.candidates.map((c) => [c.name, fixed(c.accuracy), fixed(c.macroF1), c.epochs, c.microseconds.toFixed(1), c.verdict]),
+        ["candidate", "accuracy", "macro-F1", "epochs", "work/text", "µs/300 tokens", "verdict"],
+        search.candidates.map((c) => [c.name, fixed(c.accuracy), fixed(c.macroF1), c.epochs, Number.isFinite(c.workPerText) ? Math.round(c.workPerText) : "–", Number.isFinite(c.microseconds) ? c.microseconds.toFixed(1) : "–", c.verdict]),
       ),
     );
     lines.push(`chosen: ${describeChoice(search)}`);
