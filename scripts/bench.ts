@@ -6,6 +6,7 @@ import { readExamples } from "../compiler/read/index.ts";
 import type { LabelledText } from "../compiler/evaluate/evaluate.ts";
 import { murmur3String } from "../runtime/featurizer/murmur3.ts";
 import { loadSpamAssassin, splitSpamAssassin } from "../test/fixtures/spam-assassin.ts";
+import { charGramSpeedMarkdown, runCharGramSpeed, type CharGramSpeed } from "./bench/char-gram-speed.ts";
 import { runComparison } from "./bench/comparison.ts";
 import { comparisonTable, comparisonRatios, comparisonNotes } from "./bench/comparison-print.ts";
 import type { ComparisonRow } from "./bench/comparison-rows.ts";
@@ -37,6 +38,11 @@ log("## Micro-benchmarks");
 const micro: MicroResult[] = await runMicro();
 const microTable = markdownTable(["measurement", "value", "unit", "note"], micro.map((r) => [r.name, String(r.value), r.unit, r.note ?? ""]), ["left", "right", "left", "left"]);
 log(microTable);
+
+log("\n## Character n-grams against words only (demo support topics; each model in fresh processes, interleaved)");
+const charGrams: CharGramSpeed = await runCharGramSpeed(quick ? 3 : 5);
+const charGramTable = charGramSpeedMarkdown(charGrams);
+log(charGramTable);
 
 log("\n## What compression costs (held-out test parts)");
 const spam = splitSpamAssassin(loadSpamAssassin());
@@ -105,6 +111,9 @@ const markdown = [
   "## Micro-benchmarks",
   microTable,
   "",
+  "## Character n-grams against words only",
+  charGramTable,
+  "",
   "## What compression costs",
   compressionTable,
   "",
@@ -125,5 +134,5 @@ const markdown = [
   ...comparisonNotes(comparison),
   "",
 ].join("\n");
-const written = writeResults(quick ? "bench-quick" : "bench", { machine, date: new Date().toISOString(), quick, micro, compression, heads, threads, memory, large, comparison }, markdown);
+const written = writeResults(quick ? "bench-quick" : "bench", { machine, date: new Date().toISOString(), quick, micro, charGrams, compression, heads, threads, memory, large, comparison }, markdown);
 log(`\nwrote ${written.json} and ${written.markdown}`);

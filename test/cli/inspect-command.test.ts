@@ -11,7 +11,7 @@ let model = "";
 beforeAll(async () => {
   directory = await mkdtemp(join(tmpdir(), "sluice-inspect-"));
   model = join(directory, "m.sluice");
-  const build = await sluice(["build", "demo-data/contact-form.jsonl", "--text-field", "message", "--epochs", "3", "--hash-bits", "16", "--target-precision", "spam=0.9", "--out", model, "--quiet", "--force"]);
+  const build = await sluice(["build", "demo-data/contact-form.jsonl", "--text-field", "message", "--epochs", "3", "--char-span", "0", "--hash-bits", "16", "--target-precision", "spam=0.9", "--out", model, "--quiet", "--force"]);
   if (build.code !== 0) throw new Error(build.stderr);
 }, 120_000);
 

@@ -242,7 +242,7 @@ function describeValidation(report: BuildReport): string[] {
 export function describeLatency(latency: BuildReport["latency"]): string {
   if (latency === null) return "latency: not measured (no texts)";
   const part = (l: NonNullable<BuildReport["latency"]>["tokens20"]) => `${l.microseconds.toFixed(1)} µs for ${l.tokens} tokens`;
-  return `latency (classify, this machine, now): ${part(latency.tokens20)}, ${part(latency.tokens300)}`;
+  return `latency (CPU time per classify call, this machine, now): ${part(latency.tokens20)}, ${part(latency.tokens300)}`;
 }
 
 function describeBuild(out: string, report: BuildReport): string {

@@ -70,5 +70,5 @@ function aligned(facts: readonly [string, string][]): string[] {
 function describeRecordedLatency(latency: unknown): string {
   const entries = latency !== null && typeof latency === "object" ? Object.values(latency as Record<string, { tokens?: unknown; microseconds?: unknown }>) : [];
   const parts = entries.filter((l) => typeof l?.microseconds === "number" && typeof l.tokens === "number").map((l) => `${(l.microseconds as number).toFixed(1)} µs for ${l.tokens as number} tokens`);
-  return parts.length > 0 ? `latency at build (classify, the build machine): ${parts.join(", ")}` : "latency at build: not recorded (a reproducible build leaves timings out)";
+  return parts.length > 0 ? `latency at build (CPU time per classify call, the build machine): ${parts.join(", ")}` : "latency at build: not recorded (a reproducible build leaves timings out)";
 }
