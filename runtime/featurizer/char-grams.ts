@@ -8,9 +8,10 @@ import { WORD, WORD_EDGE } from "./token-kinds.ts";
 import type { Tokenizer } from "./tokenizer.ts";
 
 /** Appends the character n-grams of every WORD token the tokenizer just read. */
-export function emitCharGrams(tokens: Tokenizer, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer): void {
+export function emitCharGrams(tokens: Tokenizer, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer, wordSources: (string | null)[] | null = null): void {
   const chars = tokens.wordChars;
   const names = out.names;
+  const sources = out.sources;
   for (let t = 0; t < tokens.tokenTotal; t++) {
     if (tokens.tokenKinds[t] !== WORD) continue;
     const first = tokens.tokenCharStart[t];
@@ -49,6 +50,7 @@ export function emitCharGrams(tokens: Tokenizer, charMin: number, charMax: numbe
         const digest = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
         pushSlot(out, digest & mask);
         if (names) names.push(charGramName(chars, first, wordLength, start, length));
+        if (sources) sources.push(wordSources ? wordSources[t] : null);
       }
     }
   }
