@@ -74,7 +74,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   let trained: TrainResult;
   for (let attempt = 0; ; attempt++) {
     const random = createRandom(settings.seed);
-    draft = createDraft({ head, labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights, tree, random, shared: settings.threads > 1 });
+    draft = createDraft({ head, labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights, tree, random, shared: settings.threads > 1, adaptive: settings.adaptiveRates });
     try {
       trained = await source.train(draft, { epochs: settings.epochs, learningRate, seed: settings.seed }, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
       checkWeights([draft.rows, draft.outputs, draft.bias], settings.epochs, learningRate);

@@ -1,14 +1,16 @@
 // The build's own setting search: what fixed defaults used to guess, chosen on the validation
-// split. Each candidate trains a float draft with early stopping (the validation split is
-// scored after every epoch; training stops when neither macro-F1 nor the validation loss has
-// improved for a few epochs), so the number of epochs comes with every candidate. Candidates
-// are tried one change at a time from the best so far (coordinate ascent): character n-grams,
-// then the other weighting, then a larger and a smaller learning rate. A candidate replaces the
-// best only when its validation macro-F1 is higher; one that classifies more than twice as
-// slowly as the best word-only candidate must gain at least one point of macro-F1 (a rule of
-// this project: speed is what users came for), and one slower than --max-us is never chosen.
-// Explicit settings are never changed. The plan is fixed in advance, so a seed gives the same
-// choice every time, unless the time budget runs out (the report then says so).
+// split. A probe first decides whether it starts from words or character n-grams (both trained
+// briefly on a subsample). Each candidate then trains a float draft with early stopping (the
+// validation split is scored after every epoch; training stops when neither macro-F1 nor the
+// validation loss has improved for a few epochs), so the number of epochs comes with every
+// candidate. Candidates are tried one change at a time from the best so far (coordinate
+// ascent): the other character setting, the softmax head, the other weighting, then a larger
+// and a smaller learning rate. A candidate replaces the best only when its validation macro-F1
+// is higher; one whose classify work (counted, see classifyWork) is more than twice the
+// word-only candidate's must gain at least one point of macro-F1 (a rule of this project: speed
+// is what users came for), and one slower than --max-us is never chosen. Explicit settings are
+// never changed. The plan is fixed in advance, so a seed gives the same choice every time,
+// unless the time budget runs out (the report then says so).
 
 import { createFeaturizer } from "../../runtime/featurizer/featurizer.ts";
 import type { HeadKind } from "../../runtime/format/model-header.ts";
@@ -26,12 +28,19 @@ import { rowBytes } from "./fit-rows-to-budget.ts";
 import type { BuildSettings } from "./build-settings.ts";
 
 /** Longest schedule a candidate trains on when epochs are not given; early stopping ends most runs far sooner. */
-export const SEARCH_MAX_EPOCHS = 40;
-/** Epochs without improvement before a candidate stops. */
-export const PATIENCE = 3;
+export const SEARCH_MAX_EPOCHS = 30;
+/**
+ * Epochs without improvement before a candidate stops. With adaptive rates most candidates
+ * peak within a few epochs (suite corpora, scripts/bench/learner-lab.ts), so two are enough.
+ */
+export const PATIENCE = 2;
 /** Character n-gram lengths the search tries (inside words, and over unspaced scripts). */
 export const SEARCH_CHAR_SPAN: [number, number] = [1, 4];
-/** A slower candidate (more than SLOWDOWN_LIMIT × the word-only time) must gain this much macro-F1. */
+/** The character n-gram probe: a subsample holding about this many word features (at least PROBE_MIN_EXAMPLES examples), PROBE_EPOCHS epochs. */
+export const PROBE_FEATURES = 150_000;
+export const PROBE_MIN_EXAMPLES = 500;
+export const PROBE_EPOCHS = 2;
+/** A costlier candidate (more than SLOWDOWN_LIMIT × the word-only classify work) must gain this much macro-F1. */
 export const SLOW_CANDIDATE_GAIN = 0.01;
 export const SLOWDOWN_LIMIT = 2;
 
@@ -48,17 +57,24 @@ export interface SearchCandidate {
   epochsRun: number;
   /** Featurize + score µs per validation text with the float draft (a proxy of classify time). */
   microseconds: number;
+  /**
+   * Classify work per validation text, counted rather than timed so the speed rule gives the
+   * same choice on a busy machine: features × row width, plus the output rows a text visits.
+   */
+  workPerText: number;
   seconds: number;
   verdict: string;
   /** Set when this candidate's training diverged. */
   diverged: TrainingDivergedError | null;
+  /** The search's deadline ended this candidate's training before its early stop. */
+  stoppedByTime: boolean;
 }
 
 export interface SearchReport {
   budgetSeconds: number;
   seconds: number;
   stoppedByBudget: boolean;
-  candidates: Omit<SearchCandidate, "diverged">[];
+  candidates: Omit<SearchCandidate, "diverged" | "stoppedByTime">[];
   /** The settings the build then used, and which of them the user fixed. */
   chosen: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims" | "epochs"> & { head: HeadKind };
   explicit: string[];
@@ -86,12 +102,13 @@ export function dimsForLabels(labelCount: number): number {
 }
 
 /**
- * The search budget when --search-time is auto: 10 s, plus 8 s per million training tokens,
- * at most 2 minutes.
- * @example autoSearchSeconds(1_500_000) // 22
+ * The search budget when --search-time is auto: 15 s, plus 10 s per million training tokens,
+ * at most 2 minutes (enough for the character n-gram candidate of a language-identification
+ * corpus of 330k tokens on a shared 2-core machine, where 10 s + 8 s/M was not).
+ * @example autoSearchSeconds(1_500_000) // 30
  */
 export function autoSearchSeconds(trainTokens: number): number {
-  return Math.min(120, 10 + (8 * trainTokens) / 1e6);
+  return Math.min(120, 15 + (10 * trainTokens) / 1e6);
 }
 
 /**
@@ -125,12 +142,29 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   let stoppedByBudget = false;
 
   const headOf = (settings: BuildSettings): HeadKind => (settings.head === "auto" ? job.head : settings.head);
-  const run = (name: string, settings: BuildSettings): SearchCandidate => {
-    const candidate = trainCandidate(name, settings, headOf(settings), encode(settings), job, explicit.has("epochs"));
+  const deadline = started + budgetSeconds * 1000;
+  const run = (name: string, settings: BuildSettings, probe?: { subset: Int32Array; epochs: number }): SearchCandidate => {
+    const candidate = trainCandidate(name, settings, headOf(settings), encode(settings), job, explicit.has("epochs"), deadline, probe);
+    if (candidate.stoppedByTime) stoppedByBudget = true;
     candidates.push(candidate);
     job.onMessage?.(`search: ${name}: validation accuracy ${candidate.accuracy.toFixed(4)}, macro-F1 ${candidate.macroF1.toFixed(4)} after ${candidate.epochs} epochs (${candidate.seconds.toFixed(1)} s)`);
     return candidate;
   };
+  // Character n-grams change the most (language identification: 0.72 → 0.91 validation
+  // accuracy) and cost the most to try on all the data, so a probe decides where the search
+  // starts: both options for PROBE_EPOCHS epochs on a subsample. Characters must win it by
+  // SLOW_CANDIDATE_GAIN, since they classify more slowly. The other option is still tried on all
+  // the data later when the budget allows.
+  let probeWords: SearchCandidate | null = null;
+  if (!explicit.has("charSpan") && base.charSpan[0] === 0) {
+    const subset = probeSubset(encode(base).train, PROBE_FEATURES, PROBE_MIN_EXAMPLES);
+    probeWords = run(`probe: words only (${subset.length} examples, ${PROBE_EPOCHS} epochs)`, base, { subset, epochs: PROBE_EPOCHS });
+    const probeChars = run(`probe: char n-grams ${SEARCH_CHAR_SPAN.join("-")} (${subset.length} examples, ${PROBE_EPOCHS} epochs)`, { ...base, charSpan: SEARCH_CHAR_SPAN }, { subset, epochs: PROBE_EPOCHS });
+    const charsWin = probeChars.macroF1 > probeWords.macroF1 + SLOW_CANDIDATE_GAIN;
+    probeWords.verdict = charsWin ? "probe: lost" : "probe: won, the search starts from words only";
+    probeChars.verdict = charsWin ? "probe: won, the search starts from character n-grams" : `probe: lost (needs ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1 over words only)`;
+    if (charsWin) base = { ...base, charSpan: SEARCH_CHAR_SPAN };
+  }
   let best = run("defaults", base);
   // A starting point that diverges: the user's rate is theirs to change (stop and say so);
   // a rate of Sluice's own is halved until training settles.
@@ -140,25 +174,30 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     best = run(`learning rate ${base.learningRate}`, base);
   }
   best.verdict = "starting point";
-  const wordOnly = best.settings.charSpan[0] === 0 ? best : null;
+  // Classify time of words only, the reference of the speed rule (the probe's when the search starts from characters).
+  const wordOnly = best.settings.charSpan[0] === 0 ? best : probeWords;
   let bestSettings = base;
   const consider = (name: string, change: Partial<BuildSettings>, costFactor: number) => {
     const settings = { ...bestSettings, ...change };
-    // Skip what the remaining budget cannot pay for (estimated from the best run's time).
-    if (elapsed() + best.seconds * costFactor > budgetSeconds) {
+    // Skip what the remaining budget cannot pay for even two epochs of (estimated from the best
+    // run's time per epoch); a candidate that starts trains until its early stop or the
+    // deadline, and one cut short by the deadline is judged on the epochs it had, which can only
+    // understate it.
+    const epochSeconds = best.seconds / Math.max(1, best.epochsRun);
+    if (elapsed() + 2 * epochSeconds * costFactor > budgetSeconds) {
       stoppedByBudget = true;
-      candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null });
+      candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null, stoppedByTime: false });
       return;
     }
     const candidate = run(name, settings);
     const reference = wordOnly ?? best;
-    const slow = reference !== candidate && candidate.microseconds > SLOWDOWN_LIMIT * reference.microseconds;
+    const slow = reference !== candidate && candidate.workPerText > SLOWDOWN_LIMIT * reference.workPerText;
     const needed = slow ? Math.max(best.macroF1, reference.macroF1 + SLOW_CANDIDATE_GAIN) : best.macroF1;
     if (job.settings.maxUs > 0 && candidate.microseconds > job.settings.maxUs) {
       candidate.verdict = `rejected: ${candidate.microseconds.toFixed(1)} µs per text is above --max-us ${job.settings.maxUs}`;
     } else if (!(candidate.macroF1 > needed) || (candidate.macroF1 === needed && candidate.accuracy <= best.accuracy)) {
       candidate.verdict = slow && candidate.macroF1 > best.macroF1
-        ? `rejected: ${(candidate.microseconds / reference.microseconds).toFixed(1)}× slower than word-only for less than ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1`
+        ? `rejected: ${(candidate.workPerText / reference.workPerText).toFixed(1)}× the classify work of words only for less than ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1`
         : `rejected: macro-F1 ${candidate.macroF1.toFixed(4)} is not above ${best.macroF1.toFixed(4)}`;
     } else {
       candidate.verdict = `chosen: macro-F1 ${candidate.macroF1.toFixed(4)} > ${best.macroF1.toFixed(4)}`;
@@ -167,7 +206,13 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
       bestSettings = settings;
     }
   };
-  if (!explicit.has("charSpan") && base.charSpan[0] === 0) consider(`char n-grams ${SEARCH_CHAR_SPAN.join("-")}`, { charSpan: SEARCH_CHAR_SPAN }, 4);
+  if (!explicit.has("charSpan")) {
+    // The option the probe did not start from, on all the data. Training time follows the
+    // feature count: measure it (the encoding is needed anyway).
+    const other: [number, number] = base.charSpan[0] === 0 ? SEARCH_CHAR_SPAN : [0, 0];
+    const costFactor = encode({ ...bestSettings, charSpan: other }).train.features.length / Math.max(1, encode(bestSettings).train.features.length);
+    consider(other[0] === 0 ? "words only" : `char n-grams ${other.join("-")}`, { charSpan: other }, costFactor);
+  }
   // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
   if (!explicit.has("head") && job.head === "tree") consider("softmax head", { head: "softmax" }, 3);
   if (!explicit.has("weighting")) consider(`weighting ${bestSettings.weighting === "tfidf" ? "mean" : "tfidf"}`, { weighting: bestSettings.weighting === "tfidf" ? "mean" : "tfidf" }, 1.2);
@@ -178,6 +223,7 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     if (bestSettings.learningRate === rate) consider(`learning rate ${rate / 2}`, { learningRate: rate / 2 }, 1.5);
   }
   if (best.verdict.startsWith("chosen") || best.verdict === "starting point") best.verdict = best.verdict === "starting point" ? "kept: no candidate did better" : best.verdict;
+  for (const candidate of candidates) if (candidate.stoppedByTime) candidate.verdict += ` (cut short by the time budget after ${candidate.epochsRun} epochs)`;
   const chosen: BuildSettings = { ...bestSettings, epochs: explicit.has("epochs") ? job.settings.epochs : Math.max(1, best.epochs) };
   return {
     settings: chosen,
@@ -185,7 +231,7 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
       budgetSeconds,
       seconds: elapsed(),
       stoppedByBudget,
-      candidates: candidates.map(({ diverged: _diverged, ...candidate }) => candidate),
+      candidates: candidates.map(({ diverged: _diverged, stoppedByTime: _stopped, ...candidate }) => candidate),
       chosen: { ...pickSettings(chosen, headOf(chosen)), epochs: chosen.epochs },
       explicit: [...explicit].filter((key) => ["charSpan", "weighting", "learningRate", "dims", "epochs"].includes(key)),
     },
@@ -197,7 +243,7 @@ function pickSettings(settings: BuildSettings, head: HeadKind): SearchCandidate[
 }
 
 /** Trains one candidate with early stopping and scores it; a diverged run scores −∞. */
-function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, encoded: { train: EncodedExamples; validation: EncodedExamples }, job: SearchJob, fixedEpochs: boolean): SearchCandidate {
+function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, encoded: { train: EncodedExamples; validation: EncodedExamples }, job: SearchJob, fixedEpochs: boolean, deadline: number, probe?: { subset: Int32Array; epochs: number }): SearchCandidate {
   const started = performance.now();
   const vocabulary = buildVocabulary(encoded.train, settings.hashBits, settings.minDocs);
   const trainRows = mapToRows(encoded.train, vocabulary.slots, settings.hashBits);
@@ -207,17 +253,20 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
   const tree = head === "tree" ? huffmanTree(labelCounts) : null;
   const paths = tree ? treePaths(tree, job.labels.length) : null;
   const random = createRandom(settings.seed);
-  const draft = createDraft({ head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random });
+  const draft = createDraft({ head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random, adaptive: settings.adaptiveRates });
   let best: DraftScores & { epoch: number } = { accuracy: 0, macroF1: -1, loss: Infinity, epoch: 0 };
   let bestLoss = Infinity;
   let stale = 0;
   let epochsRun = 0;
   let verdict = "";
   let diverged: TrainingDivergedError | null = null;
+  let stoppedByTime = false;
   try {
-    trainDraft(draft, trainRows, { epochs: fixedEpochs ? settings.epochs : SEARCH_MAX_EPOCHS, learningRate: settings.learningRate, seed: settings.seed }, {
+    const epochs = probe ? probe.epochs : fixedEpochs ? settings.epochs : SEARCH_MAX_EPOCHS;
+    trainDraft(draft, trainRows, { epochs, learningRate: settings.learningRate, seed: settings.seed }, {
       paths,
       random,
+      subset: probe?.subset,
       onEpoch: (epoch) => {
         epochsRun = epoch;
         checkWeights([draft.rows, draft.outputs, draft.bias], epoch, settings.learningRate);
@@ -227,7 +276,10 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
         if (better || scores.loss < bestLoss) stale = 0;
         else stale++;
         bestLoss = Math.min(bestLoss, scores.loss);
-        return !fixedEpochs && stale >= PATIENCE;
+        if (fixedEpochs || probe) return false;
+        if (stale >= PATIENCE) return true;
+        stoppedByTime = performance.now() > deadline;
+        return stoppedByTime;
       },
     });
     // What ships is pruned to the size budget: a candidate with many more rows (character
@@ -256,10 +308,36 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
     epochs: fixedEpochs ? settings.epochs : best.epoch,
     epochsRun,
     microseconds: classifyMicroseconds(settings, job.validation, draft, paths),
+    workPerText: classifyWork(encoded.validation, settings.dims, head, job.labels.length),
     seconds: (performance.now() - started) / 1000,
     verdict,
     diverged,
+    stoppedByTime,
   };
+}
+
+/**
+ * Every k-th training example, k chosen so the subsample holds about `features` features but at
+ * least `minExamples` examples (all of them for small data): spread over the whole file.
+ * @example probeSubset(encoded, 150_000, 500).length
+ */
+export function probeSubset(encoded: EncodedExamples, features: number, minExamples: number): Int32Array {
+  const total = encoded.features.length;
+  const byFeatures = total > 0 ? Math.ceil((encoded.count * features) / total) : encoded.count;
+  const size = Math.min(encoded.count, Math.max(minExamples, byFeatures));
+  const stride = encoded.count / size;
+  return Int32Array.from({ length: size }, (_, i) => Math.floor(i * stride));
+}
+
+/**
+ * Multiply-adds per text to score: each feature adds a row of `dims`; softmax and sigmoid then
+ * take every output row, the tree about two per level of its depth.
+ * @example classifyWork(encoded, 24, "softmax", 3)
+ */
+export function classifyWork(encoded: EncodedExamples, dims: number, head: HeadKind, labelCount: number): number {
+  if (encoded.count === 0) return 0;
+  const outputs = head === "tree" ? 2 * Math.ceil(Math.log2(Math.max(2, labelCount))) : labelCount;
+  return (encoded.features.length / encoded.count) * dims + outputs * dims;
 }
 
 /** µs per text to featurize and score up to 200 validation texts with the draft (best of 3 passes). */

@@ -65,5 +65,7 @@ export function subsetDraft(draft: Draft, keptRows: Int32Array): Draft {
     rowWeights,
     outputs: Float32Array.from(draft.outputs),
     bias: Float32Array.from(draft.bias),
+    // The accumulators belong to the training run; fine-tuning the pruned draft starts plain.
+    adaptive: null,
   };
 }

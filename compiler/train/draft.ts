@@ -22,6 +22,15 @@ export interface Draft {
   outputCount: number;
   /** Children of the inner nodes (tree head only; see runtime/model/label-tree.ts). */
   tree: Int32Array | null;
+  /** Summed squared gradients per row, output row and bias (adaptive learning rates), else null. */
+  adaptive: AdaptiveState | null;
+}
+
+/** Row-wise Adagrad accumulators: one float per feature row, per output row and per bias. */
+export interface AdaptiveState {
+  rows: Float32Array;
+  outputs: Float32Array;
+  bias: Float32Array;
 }
 
 /**
@@ -38,6 +47,8 @@ export function createDraft(options: {
   tree: Int32Array | null;
   random: RandomSource;
   shared?: boolean;
+  /** Per-row adaptive learning rates (row-wise Adagrad, see steps.ts). */
+  adaptive?: boolean;
 }): Draft {
   const { dims, slots, random } = options;
   const outputCount = options.head === "tree" ? options.labels.length - 1 : options.labels.length;
@@ -58,5 +69,6 @@ export function createDraft(options: {
     bias: allocate(outputCount),
     outputCount,
     tree: options.tree,
+    adaptive: options.adaptive ? { rows: allocate(slots.length), outputs: allocate(outputCount), bias: allocate(outputCount) } : null,
   };
 }

@@ -69,29 +69,60 @@ function outputLogit(draft: Draft, output: number, hidden: Float64Array): number
   return sum;
 }
 
-/** Moves output row `output` and its bias by −lr·g and accumulates g·row into gradHidden. */
-function updateOutput(draft: Draft, output: number, g: number, learningRate: number, s: StepScratch): void {
+/**
+ * Moves output row `output` and its bias by −lr·g and accumulates g·row into gradHidden.
+ * With adaptive rates (row-wise Adagrad) the step is divided by the root of the row's summed
+ * squared gradients, so rare and frequent outputs, rows and biases each get a step of their
+ * own scale (Duchi, Hazan and Singer 2011, "Adaptive subgradient methods"; one accumulator per
+ * row rather than per weight, which keeps memory at one float per row).
+ */
+function updateOutput(draft: Draft, output: number, g: number, learningRate: number, s: StepScratch, hiddenSquare: number): void {
   const dims = draft.dims;
   const base = output * dims;
   const outputs = draft.outputs;
+  const adaptive = draft.adaptive;
+  let outputRate = learningRate;
+  let biasRate = learningRate;
+  if (adaptive) {
+    adaptive.outputs[output] += g * g * hiddenSquare;
+    adaptive.bias[output] += g * g;
+    outputRate = learningRate / Math.sqrt(adaptive.outputs[output] + ADAPTIVE_EPSILON);
+    biasRate = learningRate / Math.sqrt(adaptive.bias[output] + ADAPTIVE_EPSILON);
+  }
   for (let j = 0; j < dims; j++) {
     s.gradHidden[j] += g * outputs[base + j];
-    outputs[base + j] -= learningRate * g * s.hidden[j];
+    outputs[base + j] -= outputRate * g * s.hidden[j];
   }
-  draft.bias[output] -= learningRate * g;
+  draft.bias[output] -= biasRate * g;
 }
 
-/** rows −= lr · (w_f / Σw) · gradHidden for every feature occurrence. */
+/** Keeps the first adaptive steps finite when a row's gradients have all been zero. */
+const ADAPTIVE_EPSILON = 1e-8;
+
+function meanSquare(vector: Float64Array, dims: number): number {
+  let sum = 0;
+  for (let j = 0; j < dims; j++) sum += vector[j] * vector[j];
+  return sum / dims;
+}
+
+/** rows −= lr · (w_f / Σw) · gradHidden for every feature occurrence (adaptive: per row, see updateOutput). */
 function updateRows(draft: Draft, features: Uint32Array, start: number, end: number, totalWeight: number, learningRate: number, s: StepScratch): void {
   if (totalWeight <= 0) return;
   const dims = draft.dims;
   const rows = draft.rows;
   const weights = draft.rowWeights;
   const gradHidden = s.gradHidden;
-  const perWeight = learningRate / totalWeight; // one division per example, not per feature
+  const adaptive = draft.adaptive;
+  const gradSquare = adaptive ? meanSquare(gradHidden, dims) : 0;
+  const perWeight = 1 / totalWeight; // one division per example, not per feature
   for (let f = start; f < end; f++) {
     const row = features[f];
-    const scale = weights === null ? perWeight : perWeight * weights[row];
+    const share = weights === null ? perWeight : perWeight * weights[row];
+    let scale = learningRate * share;
+    if (adaptive) {
+      adaptive.rows[row] += share * share * gradSquare;
+      scale /= Math.sqrt(adaptive.rows[row] + ADAPTIVE_EPSILON);
+    }
     const base = row * dims;
     let j = 0;
     for (; j + 3 < dims; j += 4) {
@@ -130,7 +161,8 @@ export function softmaxOutputStep(draft: Draft, gold: number, learningRate: numb
   const loss = logSum - s.logits[gold];
   for (let k = 0; k < count; k++) s.gradLogits[k] = Math.exp(s.logits[k] - logSum) - (k === gold ? 1 : 0);
   s.gradHidden.fill(0);
-  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s);
+  const hiddenSquare = draft.adaptive ? meanSquare(s.hidden, draft.dims) : 0;
+  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s, hiddenSquare);
   return loss;
 }
 
@@ -156,7 +188,8 @@ export function sigmoidOutputStep(draft: Draft, labels: Int32Array, labelStart: 
     s.gradLogits[k] = 1 / (1 + Math.exp(-z)) - target;
   }
   s.gradHidden.fill(0);
-  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s);
+  const hiddenSquare = draft.adaptive ? meanSquare(s.hidden, draft.dims) : 0;
+  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s, hiddenSquare);
   return loss;
 }
 
@@ -181,6 +214,7 @@ export function treeOutputStep(draft: Draft, gold: number, paths: TreePaths, lea
     s.gradLogits[p - pathStart] = (1 / (1 + Math.exp(-z)) - (paths.directions[p] > 0 ? 1 : 0));
   }
   s.gradHidden.fill(0);
-  for (let p = pathStart; p < pathEnd; p++) updateOutput(draft, paths.nodes[p], s.gradLogits[p - pathStart], learningRate, s);
+  const hiddenSquare = draft.adaptive ? meanSquare(s.hidden, draft.dims) : 0;
+  for (let p = pathStart; p < pathEnd; p++) updateOutput(draft, paths.nodes[p], s.gradLogits[p - pathStart], learningRate, s, hiddenSquare);
   return loss;
 }

@@ -14,7 +14,10 @@ import { trainDraft } from "./train-draft.ts";
 const job = workerData as ParallelJob;
 const sharedOutputs = job.draft.outputs;
 const sharedBias = job.draft.bias;
-const localDraft = { ...job.draft, outputs: Float32Array.from(sharedOutputs), bias: Float32Array.from(sharedBias) };
+// The output layer's adaptive accumulators stay private to the thread like the layer's copy;
+// the rows' accumulators are shared like the rows.
+const adaptive = job.draft.adaptive;
+const localDraft = { ...job.draft, outputs: Float32Array.from(sharedOutputs), bias: Float32Array.from(sharedBias), adaptive: adaptive ? { rows: adaptive.rows, outputs: Float32Array.from(adaptive.outputs), bias: Float32Array.from(adaptive.bias) } : null };
 const outputsAtSync = Float32Array.from(sharedOutputs);
 const biasAtSync = Float32Array.from(sharedBias);
 

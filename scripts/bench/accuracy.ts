@@ -5,7 +5,8 @@
 // model bytes, whole build seconds and the validation accuracy the build printed, and each
 // reference's chosen C/alpha and fit seconds. Results: test/bench/results/accuracy.{json,md}.
 //
-//   node --import tsx scripts/bench/accuracy.ts [--corpora DIR] [--only a,b] [--max-train N] [--no-sklearn]
+//   node --import tsx scripts/bench/accuracy.ts [--corpora DIR] [--only a,b] [--max-train N] [--no-sklearn] [--no-sluice]
+//   (--no-sluice runs the references only, e.g. once while the Sluice side is iterated on)
 //
 // Measurements, not tests. The machine is shared, so seconds are noisy.
 import { spawnSync } from "node:child_process";
@@ -88,10 +89,11 @@ try {
     if (corpus.train.length < corpus.fullTrainRows) notes.push(`training part subsampled by group: ${corpus.train.length} of ${corpus.fullTrainRows} rows`);
     console.log(`${entry.name}: ${corpus.train.length} train / ${corpus.test.length} test rows, ${entry.labels} labels`);
 
-    const sluice = runSluice(trainFile, join(work, `${entry.name}.sluice`), corpus.test, corpus.multiLabel, groupFlag);
-    for (const warning of sluice.warnings) notes.push(`build warning: ${warning}`);
-    const systems: SystemResult[] = [
-      {
+    const systems: SystemResult[] = [];
+    if (!process.argv.includes("--no-sluice")) {
+      const sluice = runSluice(trainFile, join(work, `${entry.name}.sluice`), corpus.test, corpus.multiLabel, groupFlag);
+      for (const warning of sluice.warnings) notes.push(`build warning: ${warning}`);
+      systems.push({
         system: "Sluice (default build)",
         setting: sluice.flags.join(" ") || "defaults",
         ...score(corpus, sluice.predictions),
@@ -99,9 +101,9 @@ try {
         searchSeconds: null,
         modelBytes: sluice.modelBytes,
         printedValidation: sluice.printedValidation,
-      },
-    ];
-    console.log(`  Sluice built in ${sluice.buildSeconds.toFixed(1)} s`);
+      });
+      console.log(`  Sluice built in ${sluice.buildSeconds.toFixed(1)} s`);
+    }
     if (sklearnVersion) {
       const optionsFile = join(work, `${entry.name}-options.json`);
       writeFileSync(optionsFile, JSON.stringify({ multiLabel: corpus.multiLabel, charGrams: CHAR_GRAM_CORPORA.has(entry.name) }));
@@ -144,5 +146,5 @@ const notes = [
   `Whole run: ${totalSeconds.toFixed(0)} s. The machine is shared by other work, so seconds are noisy.`,
 ];
 console.log(`\n${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}`);
-const written = writeResults("accuracy", { sklearn: sklearnVersion, flags: groupFlag, maxTrainRows: maxTrain, totalSeconds, results }, `${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n\nCommand: \`npm run bench:accuracy\`; scikit-learn ${sklearnVersion ?? "not installed"}.`);
+const written = writeResults(process.argv.includes("--no-sluice") ? "accuracy-references" : "accuracy", { sklearn: sklearnVersion, flags: groupFlag, maxTrainRows: maxTrain, totalSeconds, results }, `${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n\nCommand: \`npm run bench:accuracy\`; scikit-learn ${sklearnVersion ?? "not installed"}.`);
 console.log(`\nwritten: ${written.markdown}`);

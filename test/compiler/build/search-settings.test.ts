@@ -6,7 +6,8 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { build } from "../../../compiler/build/build.ts";
 import { defaultBuildSettings } from "../../../compiler/build/build-settings.ts";
-import { autoSearchSeconds, dimsForLabels } from "../../../compiler/build/search-settings.ts";
+import { autoSearchSeconds, dimsForLabels, probeSubset } from "../../../compiler/build/search-settings.ts";
+import type { EncodedExamples } from "../../../compiler/train/encode.ts";
 import { readExamples, type Example } from "../../../compiler/read/index.ts";
 
 const SUPPORT_TOPICS = new URL("../../../demo-data/support-topics.csv", import.meta.url).pathname;
@@ -59,13 +60,31 @@ describe("the build's setting search", () => {
   });
 });
 
+describe("the character n-gram probe", () => {
+  it("runs first on a subsample, both options, and says which one the search starts from", async () => {
+    const { report } = await build({ examples, settings: settings(), explicit: ["hashBits", "searchTime"], buildTime: BUILD_TIME });
+    const probes = report.search?.candidates.filter((c) => c.name.startsWith("probe:")) ?? [];
+    expect(probes.map((c) => c.settings.charSpan[0] === 0)).toEqual([true, false]);
+    expect(probes.filter((c) => /won/.test(c.verdict))).toHaveLength(1);
+    expect(report.search?.candidates[2].name).toBe("defaults");
+  });
+
+  it("takes every k-th example: about the asked features, at least the minimum, never more than there are", () => {
+    // 100 examples of 10 features each.
+    const encoded = { count: 100, features: new Uint32Array(1000), offsets: new Uint32Array(101), tokenTotal: 500 } as unknown as EncodedExamples;
+    expect(Array.from(probeSubset(encoded, 200, 5))).toEqual(Array.from({ length: 20 }, (_, i) => i * 5));
+    expect(probeSubset(encoded, 10, 30)).toHaveLength(30);
+    expect(probeSubset(encoded, 1e9, 5)).toHaveLength(100);
+  });
+});
+
 describe("search defaults", () => {
   it("sizes dims to the label count and scales the budget with the data", () => {
     expect(dimsForLabels(2)).toBe(24);
     expect(dimsForLabels(40)).toBe(32);
     expect(dimsForLabels(456)).toBe(48);
-    expect(autoSearchSeconds(0)).toBe(10);
-    expect(autoSearchSeconds(1_500_000)).toBe(22);
+    expect(autoSearchSeconds(0)).toBe(15);
+    expect(autoSearchSeconds(1_500_000)).toBe(30);
     expect(autoSearchSeconds(1e9)).toBe(120);
   });
 });
