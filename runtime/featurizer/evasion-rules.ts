@@ -7,8 +7,9 @@
 //   ("fr33"): "mp3", "win10", "covid19", "14th" and "10am" stay as written;
 // - @ and ! stand for a and i only between two letters, $ for s before a letter, € for e beside one;
 // - padding symbols (* _ ~ ^ ` | \ + = # · •) between two letters, or a letter and a digit, are dropped;
-// - a run of three or more of one letter is bounded to two ("freeeee" → "free"), and the form
-//   with one ("mooooney" → "money") is emitted as an extra feature beside it.
+// - a run of three or more of one letter becomes one letter ("mooooney" → "money", "sooo" → "so"),
+//   and the form with two ("freeeee" → "free") is emitted as an extra feature beside it: people
+//   stretch the letter they sound, which is a single letter in most words and a double in some.
 // Common practice, no source: the readings are the usual leetspeak ones.
 import { LETTER } from "./char-classes.ts";
 import { Murmur3Stream } from "./murmur3.ts";
@@ -51,13 +52,13 @@ export function paddingEnd(text: string, from: number, end: number): number {
 }
 
 /**
- * Bounds runs of three or more of one letter in `chars[start..end)` to two, in place. Returns
- * the new end, and the word with those runs down to one letter (null when there was no such run).
+ * Shortens runs of three or more of one letter in `chars[start..end)` to one, in place. Returns
+ * the new end, and the word with those runs at two letters instead (null when there was no such run).
  */
-export function capRuns(chars: Uint16Array, start: number, end: number): { end: number; shortest: Uint16Array | null } {
+export function capRuns(chars: Uint16Array, start: number, end: number): { end: number; doubled: Uint16Array | null } {
   let write = start;
   let longRun = false;
-  const shortest: number[] = [];
+  const doubled: number[] = [];
   let read = start;
   while (read < end) {
     const code = chars[read];
@@ -65,11 +66,11 @@ export function capRuns(chars: Uint16Array, start: number, end: number): { end: 
     if (!(code >= 0x30 && code <= 0x39)) while (runEnd < end && chars[runEnd] === code) runEnd++;
     const length = runEnd - read;
     if (length >= 3) longRun = true;
-    for (let k = 0; k < Math.min(length, 2); k++) chars[write++] = code;
-    for (let k = 0; k < (length >= 3 ? 1 : length); k++) shortest.push(code);
+    for (let k = 0; k < (length >= 3 ? 1 : length); k++) chars[write++] = code;
+    for (let k = 0; k < Math.min(length, 2); k++) doubled.push(code);
     read = runEnd;
   }
-  return { end: write, shortest: longRun ? Uint16Array.from(shortest) : null };
+  return { end: write, doubled: longRun ? Uint16Array.from(doubled) : null };
 }
 
 const stream = new Murmur3Stream();

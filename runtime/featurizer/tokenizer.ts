@@ -61,7 +61,7 @@ export class Tokenizer {
   tokenTextEnd: number[] = [];
   /**
    * Features that are not tokens (no word pairs, no character n-grams): the one-run form of a
-   * word whose letter runs were bounded ("mooooney" → token "mooney", extra "money").
+   * word whose letter runs were shortened ("freeeee" → token "fre", extra "free").
    */
   extraHashes: number[] = [];
   extraNames: string[] = [];
@@ -488,7 +488,8 @@ export class Tokenizer {
           }
         }
         const capped = capRuns(chars, charStart, total);
-        if (capped.shortest !== null) this.addExtra(hashCodes(capped.shortest, 0, capped.shortest.length, this.wordSeed), this.withNames ? charCodesToString(capped.shortest, 0, capped.shortest.length) : "", start, i);
+        const doubled = capped.doubled;
+        if (doubled !== null) this.addExtra(hashCodes(doubled, 0, doubled.length, this.wordSeed), this.withNames ? charCodesToString(doubled, 0, doubled.length) : "", start, i);
         total = capped.end;
         hash = hashCodes(chars, charStart, total, this.wordSeed);
       }

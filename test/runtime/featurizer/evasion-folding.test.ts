@@ -74,10 +74,11 @@ describe("each kind of evasion recovers the clean text's features", () => {
     expectRecovers(perturbed, clean);
   });
 
-  it("runs of one letter: the bounded form is the word, the one-letter form an extra feature", () => {
-    expectRecovers("freeeeee offer", "free offer", ["fre"]);
-    expect(wordsOf("mooooney")).toEqual(["mooney", "money"]);
-    expect(wordsOf("FREEEEE")).toEqual(["free", "fre"]);
+  it("runs of one letter: the one-letter form is the word, the two-letter form an extra feature", () => {
+    expectRecovers("mooooney nooow", "money now", ["mooney", "noow"]);
+    expect(wordsOf("freeeeee")).toEqual(["fre", "free"]);
+    expect(wordsOf("FREEEEE")).toEqual(["fre", "free"]);
+    expect(wordsOf("soooo good")).toEqual(["so", "good", "soo"]);
   });
 
   it.each([
