@@ -4,10 +4,9 @@
 
 import { CONFUSABLE_GROUPS } from "./confusables-table.ts";
 
-/** The lower-cased prototypes, indexed by the values of `bmpIndex` and `astralIndex` minus one. */
+/** The lower-cased prototypes, indexed by the values of `bmpIndex` minus one. */
 const prototypes: string[] = [];
 let bmpIndex: Uint16Array | null = null;
-const astralIndex = new Map<number, number>();
 
 function decode(): Uint16Array {
   const table = new Uint16Array(65536);
@@ -18,8 +17,7 @@ function decode(): Uint16Array {
     let code = 0;
     for (const delta of group.slice(colon + 1).split(",")) {
       code += parseInt(delta, 36);
-      if (code < 65536) table[code] = value;
-      else astralIndex.set(code, value);
+      table[code] = value;
     }
   }
   bmpIndex = table;
@@ -27,11 +25,11 @@ function decode(): Uint16Array {
 }
 
 /**
- * The lower-cased ASCII prototype of a lookalike code point, or "" when it has none in the table.
+ * The lower-cased ASCII prototype of a lookalike UTF-16 code unit, or "" when it has none in
+ * the table (which holds none above U+FFFF).
  * @example confusablePrototype(0x0435) // "e" (CYRILLIC SMALL LETTER IE)
  */
-export function confusablePrototype(codePoint: number): string {
-  const table = bmpIndex ?? decode();
-  const value = codePoint < 65536 ? table[codePoint] : (astralIndex.get(codePoint) ?? 0);
+export function confusablePrototype(code: number): string {
+  const value = (bmpIndex ?? decode())[code];
   return value === 0 ? "" : prototypes[value - 1];
 }

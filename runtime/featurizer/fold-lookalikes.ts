@@ -80,12 +80,7 @@ export class LookalikeFolder {
         continue;
       }
       let start = i;
-      while (start > scanned) {
-        const before = text.charCodeAt(start - 1);
-        const wide = before >= 0xdc00 && before < 0xe000 && start - 2 >= scanned && unitClass(text, start - 2) === LETTER ? 2 : 1;
-        if (wide === 1 && unitClass(text, start - 1) < 0) break;
-        start -= wide;
-      }
+      while (start > scanned && unitClass(text, start - 1) >= 0) start--;
       i = scanned = this.readWord(start);
     }
     if (this.pieces.length === 0) return text;
@@ -106,7 +101,7 @@ export class LookalikeFolder {
     for (;;) {
       const cls = unitClass(text, i);
       if (cls < 0) break;
-      const code = text.codePointAt(i) as number;
+      const code = text.charCodeAt(i);
       if (cls === DROPPED) {
         if (isBidiControl(code)) notes.hiddenChars = true;
         if (this.wordStart >= 0) this.hiddenInWord = true;
@@ -121,7 +116,7 @@ export class LookalikeFolder {
           this.mask |= group;
         }
       }
-      i += code > 0xffff ? 2 : 1;
+      i++;
     }
     if (this.wordStart >= 0) this.endWord(i);
     return i;
@@ -150,11 +145,9 @@ export class LookalikeFolder {
     const pieces = this.pieces;
     pieces.push(text.slice(this.copied, wordStart));
     for (let i = wordStart; i < end; i++) {
-      const code = text.codePointAt(i) as number;
-      const wide = code > 0xffff ? 2 : 1;
+      const code = text.charCodeAt(i);
       const prototype = code < 0x80 ? "" : confusablePrototype(code);
-      pieces.push(prototype === "" ? text.slice(i, i + wide) : prototype);
-      i += wide - 1;
+      pieces.push(prototype === "" ? text[i] : prototype);
     }
     this.copied = end;
   }
@@ -162,8 +155,7 @@ export class LookalikeFolder {
 
 /**
  * What a code unit is to a word: LETTER, DIGIT or DROPPED (a format character), or -1 for
- * anything that ends one. Above U+FFFF the tokenizer reads no letters (they separate words):
- * only a lookalike, which folds to ASCII, is part of a word there.
+ * anything that ends one (surrogates too: the tokenizer reads no letters above U+FFFF).
  */
 function unitClass(text: string, at: number): number {
   if (at >= text.length) return -1;
@@ -171,10 +163,6 @@ function unitClass(text: string, at: number): number {
   if (code < 0x80) {
     const lower = code | 0x20;
     return lower >= 0x61 && lower <= 0x7a ? LETTER : code >= 0x30 && code <= 0x39 ? DIGIT : -1;
-  }
-  if (code >= 0xd800 && code < 0xdc00) {
-    const codePoint = text.codePointAt(at) as number;
-    return codePoint > 0xffff && confusablePrototype(codePoint) !== "" ? LETTER : -1;
   }
   const cls = classOf(code);
   return cls === LETTER || cls === DIGIT || cls === DROPPED ? cls : -1;

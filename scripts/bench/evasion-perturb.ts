@@ -1,6 +1,7 @@
 // Seeded perturbations of the kinds people use to get text past a moderation model, for the
 // evasion suite (scripts/bench/evasion.ts). Each kind rewrites a share of a text's words (runs
-// of three or more ASCII letters), chosen with a seeded generator, so a run is reproducible:
+// of three or more ASCII letters; URLs and e-mail addresses are left alone, as an evader needs
+// them to keep working), chosen with a seeded generator, so a run is reproducible:
 //   confusables  Cyrillic or Greek lookalikes for some letters ("frее", "МОNЕY")
 //   leetspeak    digits and symbols for some letters ("fr33", "m0n3y", "ca$h")
 //   spacing      letters one space apart ("f r e e")
@@ -85,15 +86,21 @@ export function perturbWord(word: string, kind: SingleKind, random: () => number
   }
 }
 
+/** A URL or an e-mail address: an evader keeps those working, so they are left as they are. */
+const LINK = /^[("'<[]*(https?:\/\/|www\.)|@/i;
+
 /**
- * `text` with about `rate` of its words (runs of 3+ ASCII letters) rewritten by `kind`;
- * `seed` fixes the choice.
+ * `text` with about `rate` of its words (runs of 3+ ASCII letters outside URLs and e-mail
+ * addresses) rewritten by `kind`; `seed` fixes the choice.
  * @example perturbText("free money now", "leetspeak", 1, 7) // e.g. "fr3e m0ney n0w"
  */
 export function perturbText(text: string, kind: PerturbationKind, rate: number, seed: number): string {
   const random = seededRandom(seed);
-  return text.replace(/[A-Za-z]{3,}/g, (word) => {
-    if (random() >= rate) return word;
-    return perturbWord(word, kind === "mixed" ? pick(SINGLE_KINDS, random) : kind, random);
+  return text.replace(/\S+/g, (chunk) => {
+    if (LINK.test(chunk)) return chunk;
+    return chunk.replace(/[A-Za-z]{3,}/g, (word) => {
+      if (random() >= rate) return word;
+      return perturbWord(word, kind === "mixed" ? pick(SINGLE_KINDS, random) : kind, random);
+    });
   });
 }
