@@ -90,7 +90,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   // The epochs and the rate below are used as they are only with --search-time 0; otherwise the
   // search picks the epochs by early stopping and the rate from 0.25 to 2 (search-settings.ts).
   epochs: { flag: "--epochs", kind: "int", min: 1, max: 1000, default: 5, defaultText: "chosen by early stopping on validation (5 with --search-time 0)", description: "passes over the training data" },
-  learningRate: { flag: "--learning-rate", kind: "float", min: 1e-6, max: 10, default: 0.5, defaultText: "chosen: 0.25 to 2, starting at 0.5", description: "initial SGD learning rate (decays linearly to zero)" },
+  learningRate: { flag: "--learning-rate", kind: "float", min: 1e-6, max: 10, default: 0.5, defaultText: "chosen: 0.25 to 2, starting at 0.5", description: "SGD learning rate: the base of every row's adaptive rate, or with --no-adaptive-rates the initial rate, decaying linearly to zero" },
   // On by default: with one rate for all rows, a row's step shrinks with the length of the
   // texts it occurs in (each of n features gets 1/n of the gradient), so long documents and
   // large label sets barely trained in the epochs a build can afford. On the training parts of

@@ -1,5 +1,5 @@
-// The SGD loop: epochs over a seeded shuffle, learning rate decaying linearly to zero
-// over the whole run, progress reported every few thousand examples.
+// The SGD loop: epochs over a seeded shuffle, learning rate constant under adaptive rates or
+// decaying linearly to zero over the whole run (plain SGD), progress reported every few thousand examples.
 
 import type { Draft } from "./draft.ts";
 import type { EncodedExamples } from "./encode.ts";
@@ -86,7 +86,10 @@ export function trainDraft(draft: Draft, data: EncodedExamples, settings: TrainS
     for (let i = 0; i < count; i++) {
       const example = order[i];
       const progress = (stepOffset + step) / totalSteps;
-      const learningRate = settings.learningRate * Math.max(0, 1 - progress);
+      // Adaptive rates shrink on their own, so their base rate stays constant: then epoch k of
+      // a longer run is the same model as a run of k epochs, and the epochs the search's early
+      // stopping validated are exactly what the build trains. Plain SGD decays linearly to zero.
+      const learningRate = draft.adaptive ? settings.learningRate : settings.learningRate * Math.max(0, 1 - progress);
       const start = offsets[example];
       const end = offsets[example + 1];
       const labelStart = labelOffsets[example];
