@@ -1,0 +1,64 @@
+// Character n-grams inside words: each word is framed by an edge byte at both ends, and every
+// piece of charMin..charMax characters is hashed with MurmurHash3 over its UTF-8 bytes. A
+// hot loop over char codes, so the UTF-8 encoding is written inline.
+
+import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
+import { finish, mixBlock, mixTail } from "./murmur3.ts";
+import { WORD, WORD_EDGE } from "./token-kinds.ts";
+import type { Tokenizer } from "./tokenizer.ts";
+
+/** Appends the character n-grams of every WORD token the tokenizer just read. */
+export function emitCharGrams(tokens: Tokenizer, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer): void {
+  const chars = tokens.wordChars;
+  const names = out.names;
+  for (let t = 0; t < tokens.tokenTotal; t++) {
+    if (tokens.tokenKinds[t] !== WORD) continue;
+    const first = tokens.tokenCharStart[t];
+    const wordLength = tokens.tokenCharEnd[t] - first;
+    const framedLength = wordLength + 2; // the word with an edge byte on each side
+    for (let start = 0; start < framedLength; start++) {
+      // MurmurHash3 of the UTF-8 bytes of framed[start .. start + length), for each length,
+      // in one pass: the running state is read out (without disturbing it) at each length.
+      let h = seed | 0;
+      let pending = 0;
+      let bytes = 0;
+      const longest = Math.min(charMax, framedLength - start);
+      for (let length = 1; length <= longest; length++) {
+        const position = start + length - 1;
+        const isEdge = position === 0 || position === framedLength - 1;
+        const code = isEdge ? WORD_EDGE : chars[first + position - 1];
+        if (code < 0x80) {
+          pending |= code << ((bytes & 3) << 3);
+          if ((++bytes & 3) === 0) {
+            h = mixBlock(h, pending);
+            pending = 0;
+          }
+        } else {
+          const count = code < 0x800 ? 2 : 3;
+          for (let b = 0; b < count; b++) {
+            const byte = count === 2 ? (b === 0 ? 0xc0 | (code >>> 6) : 0x80 | (code & 0x3f)) : b === 0 ? 0xe0 | (code >>> 12) : b === 1 ? 0x80 | ((code >>> 6) & 0x3f) : 0x80 | (code & 0x3f);
+            pending |= byte << ((bytes & 3) << 3);
+            if ((++bytes & 3) === 0) {
+              h = mixBlock(h, pending);
+              pending = 0;
+            }
+          }
+        }
+        if (length < charMin) continue;
+        if (length === 1 && isEdge) continue; // an edge alone says nothing
+        const digest = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+        pushSlot(out, digest & mask);
+        if (names) names.push(charGramName(chars, first, wordLength, start, length));
+      }
+    }
+  }
+}
+
+/** A character n-gram as people read it: "·" marks the start or end of the word. */
+function charGramName(chars: Uint16Array, first: number, wordLength: number, start: number, length: number): string {
+  let name = "";
+  for (let position = start; position < start + length; position++) {
+    name += position === 0 || position === wordLength + 1 ? "·" : String.fromCharCode(chars[first + position - 1]);
+  }
+  return name;
+}

@@ -1,0 +1,404 @@
+// The tokenizer of the one featurizer: splits normalized text into chunks at whitespace and
+// reads each chunk as a URL, an e-mail address, or words / numbers / codes / kept punctuation
+// / emoji. Each token's MurmurHash3 is computed while its characters are read; word
+// characters are kept only when character n-grams or names need them. This file is one hot
+// loop over char codes (it runs once per character of every text), so it stays long on
+// purpose rather than being split into calls.
+
+import { charCodesToString } from "./char-codes-to-string.ts";
+import {
+  APOSTROPHE,
+  DIGIT,
+  DIGIT_JOINER,
+  DROPPED,
+  EMOJI,
+  HIGH_SURROGATE,
+  KEPT_PUNCTUATION,
+  LETTER,
+  SPACE,
+  classOf,
+  classOfAstral,
+  isUnspacedLetter,
+} from "./char-classes.ts";
+import { chunkEnd, isEmailAddress, isOpeningBracket, lowerAscii, startsWithAscii, trimTrailingPunctuation, urlHostOffset } from "./chunk-shapes.ts";
+import type { FeatureSeeds } from "./feature-seeds.ts";
+import { Murmur3Stream, finish, mixBlock, mixTail, murmur3String } from "./murmur3.ts";
+import { ASCII_WORD_BYTES, CODE, EMAIL, MARK, NUMBER, NUMBER_NAMES, URL, WORD } from "./token-kinds.ts";
+
+/** Reads tokens into reusable typed arrays; the featurizer reads them back after `tokenize`. */
+export class Tokenizer {
+  private readonly wordSeed: number;
+  private readonly hostSeed: number;
+  private readonly numberHashes: Uint32Array;
+  private readonly codeHash: number;
+  private readonly emailHash: number;
+  /** MARK tokens "?", "??", "???", "!", "!!", "!!!" (the fast path's trailing marks). */
+  private readonly markHashes: Uint32Array;
+  private readonly stream = new Murmur3Stream();
+  private readonly maxTokens: number;
+
+  // Scratch, reused across calls and grown on demand; read by the featurizer after tokenize.
+  tokenHashes = new Uint32Array(256);
+  tokenKinds = new Uint8Array(256);
+  tokenCharStart = new Int32Array(256);
+  tokenCharEnd = new Int32Array(256);
+  wordChars: Uint16Array = new Uint16Array(2048);
+  tokenNames: string[] = [];
+  tokenTotal = 0;
+  private wordCharTotal = 0;
+  private withNames = false;
+  /** Whether readWord must keep the word's characters (for character n-grams or names). */
+  private keepWordChars = false;
+
+  /** Letters of scripts without spaces become one token each (featurizer setting unspacedScripts). */
+  private readonly splitUnspaced: boolean;
+
+  constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false) {
+    this.maxTokens = maxTokens;
+    this.splitUnspaced = splitUnspaced;
+    this.wordSeed = seeds.word;
+    this.hostSeed = seeds.host;
+    this.numberHashes = Uint32Array.from(NUMBER_NAMES, (name) => murmur3String(name, seeds.shape));
+    this.codeHash = murmur3String("[code]", seeds.shape);
+    this.emailHash = murmur3String("[email]", seeds.shape);
+    this.markHashes = Uint32Array.from(["?", "??", "???", "!", "!!", "!!!"], (mark) => murmur3String(mark, this.wordSeed));
+  }
+
+  /** Set when a token beyond maxTokens was found: the text was cut (and reading stopped). */
+  hasMoreText = false;
+
+  /** Reads the tokens of normalized `text`; names are kept only when `withNames`. */
+  tokenize(text: string, withNames: boolean, keepWordChars: boolean): void {
+    this.withNames = withNames;
+    this.keepWordChars = keepWordChars;
+    this.tokenNames.length = 0;
+    this.tokenTotal = 0;
+    this.wordCharTotal = 0;
+    this.hasMoreText = false;
+    const length = text.length;
+    let i = 0;
+    while (i < length && !this.hasMoreText) {
+      const code = text.charCodeAt(i);
+      if (code < 0x80 ? code <= 0x20 || code === 0x7f : classOf(code) === SPACE) {
+        i++;
+        continue;
+      }
+      const plainEnd = this.plainChunks ? this.readPlainChunk(text, i, length) : -1;
+      i = plainEnd >= 0 ? plainEnd : this.readChunk(text, i, length);
+    }
+  }
+
+  /** Off only in tests, to check that the fast path reads exactly what readChunk reads. */
+  plainChunks = true;
+
+  /**
+   * Fast path for the most common chunks: one ASCII word (letters and digits, with apostrophes
+   * between letters, as in "can't"), then at most one of , . ; : or a run of ? or !, then
+   * whitespace or the end of the text. Returns where the chunk ends, or -1, having changed
+   * nothing, when the chunk needs readChunk (anything else, a URL-like start, or the token
+   * limit). It yields exactly the tokens readChunk would (test/runtime/featurizer/featurizer-fast-path.test.ts).
+   */
+  private readPlainChunk(text: string, start: number, length: number): number {
+    const first = text.charCodeAt(start) | 0x20; // lower-cases ASCII letters
+    const second = text.charCodeAt(start + 1) | 0x20;
+    if ((first === 0x68 && second === 0x74) || (first === 0x77 && second === 0x77)) return -1; // "ht…", "ww…": maybe a URL
+    let h = this.wordSeed | 0;
+    let pending = 0;
+    let digits = 0;
+    let apostrophes = 0;
+    let previous = 0; // the last byte hashed
+    let i = start;
+    while (i < length) {
+      const code = text.charCodeAt(i);
+      let byte = code < 0x80 ? ASCII_WORD_BYTES[code] : 0;
+      if (byte === 0) {
+        if (code !== 0x27 || previous < 0x61 || i + 1 >= length) break;
+        // An apostrophe joins two letters; a non-ASCII next character is left to readChunk.
+        const next = text.charCodeAt(i + 1);
+        if (next >= 0x80) return -1;
+        if (ASCII_WORD_BYTES[next] < 0x61) break;
+        byte = 0x27;
+        apostrophes++;
+      } else if (byte <= 0x39) {
+        digits++;
+      }
+      pending |= byte << (((i - start) & 3) << 3);
+      if (((i - start + 1) & 3) === 0) {
+        h = mixBlock(h, pending);
+        pending = 0;
+      }
+      previous = byte;
+      i++;
+    }
+    const bytes = i - start;
+    if (bytes === 0) return -1;
+    let end = i;
+    let markCode = 0;
+    let markRepeats = 0;
+    if (end < length) {
+      let next = text.charCodeAt(end);
+      if (next === 0x2c || next === 0x2e || next === 0x3b || next === 0x3a) {
+        next = ++end < length ? text.charCodeAt(end) : 0x20;
+      } else if (next === 0x3f || next === 0x21) {
+        markCode = next;
+        const runStart = end;
+        while (end < length && text.charCodeAt(end) === markCode) end++;
+        markRepeats = Math.min(end - runStart, 3);
+        next = end < length ? text.charCodeAt(end) : 0x20;
+      }
+      if (!(next <= 0x20 || next === 0x7f)) return -1;
+    }
+    if (this.tokenTotal + (markCode === 0 ? 1 : 2) > this.maxTokens) return -1;
+    const charStart = this.wordCharTotal;
+    if (this.keepWordChars) {
+      while (this.wordChars.length < charStart + bytes) this.growWordChars();
+      for (let c = 0; c < bytes; c++) {
+        const code = text.charCodeAt(start + c);
+        this.wordChars[charStart + c] = code === 0x27 ? 0x27 : ASCII_WORD_BYTES[code];
+      }
+      this.wordCharTotal = charStart + bytes;
+    }
+    if (digits + apostrophes === bytes) {
+      const bucket = Math.min(digits, 5) - 1;
+      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
+    } else if (digits >= 3) {
+      this.addToken(CODE, this.codeHash, -1, -1, "[code]");
+    } else {
+      const name = this.withNames ? charCodesToString(this.wordChars, charStart, charStart + bytes) : "";
+      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+      this.addToken(WORD, hash, charStart, charStart + bytes, name);
+    }
+    if (markCode !== 0) {
+      const hash = this.markHashes[(markCode === 0x3f ? 0 : 3) + markRepeats - 1];
+      this.addToken(MARK, hash, -1, -1, this.withNames ? String.fromCharCode(markCode).repeat(markRepeats) : "");
+    }
+    return end;
+  }
+
+  /**
+   * Reads one chunk (a run without whitespace) from `start`; returns where it ended. A chunk
+   * is a URL, an e-mail address, or ordinary tokens. Most chunks are ordinary, so they are
+   * read in one pass; only a chunk that starts like a URL, or that turned out to hold "@",
+   * is looked at again.
+   */
+  private readChunk(text: string, start: number, length: number): number {
+    let coreStart = start;
+    while (coreStart < length && isOpeningBracket(text.charCodeAt(coreStart))) coreStart++;
+    // Every URL form read here starts with "ht" or "ww" (a cheap test before scanning the chunk;
+    // `| 0x20` lower-cases ASCII letters, and urlHostOffset below makes the exact check).
+    const first = text.charCodeAt(coreStart) | 0x20;
+    const second = text.charCodeAt(coreStart + 1) | 0x20;
+    if ((first === 0x68 && second === 0x74) || (first === 0x77 && second === 0x77)) {
+      const end = chunkEnd(text, coreStart, length);
+      const coreEnd = trimTrailingPunctuation(text, coreStart, end);
+      const hostStart = urlHostOffset(text, coreStart, coreEnd);
+      if (hostStart >= 0) {
+        this.addUrl(text, hostStart, coreEnd);
+        return this.tokenizeSpan(text, coreEnd, length);
+      }
+    }
+    const tokensBefore = this.tokenTotal;
+    const charsBefore = this.wordCharTotal;
+    this.atSign = -1;
+    const end = this.tokenizeSpan(text, start, length);
+    const atSign = this.atSign;
+    if (atSign > coreStart) {
+      const coreEnd = trimTrailingPunctuation(text, coreStart, end);
+      if (atSign < coreEnd && isEmailAddress(text, coreStart, atSign, coreEnd)) {
+        // Take back the pieces read from the address and keep it as one shape token.
+        this.tokenTotal = tokensBefore;
+        this.wordCharTotal = charsBefore;
+        this.hasMoreText = false;
+        this.addToken(EMAIL, this.emailHash, -1, -1, "[email]");
+        return this.tokenizeSpan(text, coreEnd, length);
+      }
+    }
+    return end;
+  }
+
+  /** Position of the first "@" met by the last tokenizeSpan call, or -1. */
+  private atSign = -1;
+
+  private addUrl(text: string, hostStart: number, end: number): void {
+    let hostEnd = hostStart;
+    while (hostEnd < end) {
+      const c = text.charCodeAt(hostEnd);
+      if (c === 0x2f || c === 0x3f || c === 0x23 || c === 0x3a) break; // / ? # :
+      hostEnd++;
+    }
+    if (hostEnd - hostStart > 4 && startsWithAscii(text, hostStart, "www.")) hostStart += 4;
+    const stream = this.stream;
+    stream.reset(this.hostSeed);
+    for (let i = hostStart; i < hostEnd; i++) stream.pushCodePoint(lowerAscii(text.charCodeAt(i)));
+    const name = this.withNames ? `[url ${text.slice(hostStart, hostEnd).toLowerCase()}]` : "";
+    this.addToken(URL, stream.digest(), -1, -1, name);
+  }
+
+  /**
+   * Ordinary tokens (words, numbers, codes, kept punctuation, emoji) from `start` up to the
+   * next whitespace; returns where it stopped.
+   */
+  private tokenizeSpan(text: string, start: number, end: number): number {
+    const stream = this.stream;
+    let i = start;
+    while (i < end && !this.hasMoreText) {
+      const code = text.charCodeAt(i);
+      const cls = classOf(code);
+      if (cls === SPACE) break;
+      if (cls === LETTER || cls === DIGIT) {
+        i = this.readWord(text, i, end);
+      } else if (cls === KEPT_PUNCTUATION) {
+        let runEnd = i + 1;
+        while (runEnd < end && text.charCodeAt(runEnd) === code) runEnd++;
+        const repeats = Math.min(runEnd - i, 3);
+        stream.reset(this.wordSeed);
+        for (let r = 0; r < repeats; r++) stream.pushCodePoint(code);
+        this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCharCode(code).repeat(repeats) : "");
+        i = runEnd;
+      } else if (cls === EMOJI) {
+        stream.reset(this.wordSeed);
+        stream.pushCodePoint(code);
+        this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCharCode(code) : "");
+        i++;
+      } else if (cls === HIGH_SURROGATE && i + 1 < end) {
+        const low = text.charCodeAt(i + 1);
+        if (low >= 0xdc00 && low < 0xe000) {
+          const codePoint = 0x10000 + ((code - 0xd800) << 10) + (low - 0xdc00);
+          if (classOfAstral(codePoint) === EMOJI) {
+            stream.reset(this.wordSeed);
+            stream.pushCodePoint(codePoint);
+            this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCodePoint(codePoint) : "");
+          }
+          i += 2;
+        } else {
+          i++;
+        }
+      } else {
+        if (code === 0x40 && this.atSign < 0) this.atSign = i;
+        i++; // separators, dropped characters, lone surrogates
+      }
+    }
+    return i;
+  }
+
+  /** Reads one word/number/code run starting at `start`; returns where it ended. */
+  private readWord(text: string, start: number, end: number): number {
+    // Locals instead of fields in this loop: it runs once per character of every text.
+    let chars = this.wordChars;
+    let total = this.wordCharTotal;
+    const charStart = total;
+    const keepChars = this.keepWordChars;
+    let letters = 0;
+    let digits = 0;
+    let i = start;
+    let previousClass = -1;
+    const splitUnspaced = this.splitUnspaced;
+    let single = false;
+    // MurmurHash3 of the word's UTF-8 bytes, computed as the characters are read.
+    let h = this.wordSeed | 0;
+    let pending = 0;
+    let bytes = 0;
+    while (i < end) {
+      const code = text.charCodeAt(i);
+      const cls = classOf(code);
+      let kept: number;
+      if (cls === LETTER) {
+        if (splitUnspaced && code >= 0x0e00 && isUnspacedLetter(code)) {
+          if (letters + digits > 0) break; // the word read so far ends before it
+          single = true; // this letter is a token of its own
+        }
+        kept = code >= 0x41 && code <= 0x5a ? code + 32 : code;
+        letters++;
+      } else if (cls === DIGIT) {
+        kept = code;
+        digits++;
+      } else if (cls === DROPPED) {
+        i++;
+        continue;
+      } else if (cls === APOSTROPHE || cls === DIGIT_JOINER) {
+        // Joins only when the next character continues the run (letters for an
+        // apostrophe, digits on both sides for . , :).
+        const nextClass = i + 1 < end ? classOf(text.charCodeAt(i + 1)) : -1;
+        const joins = cls === APOSTROPHE ? nextClass === LETTER && previousClass === LETTER : nextClass === DIGIT && previousClass === DIGIT;
+        if (!joins) break;
+        kept = cls === APOSTROPHE ? 0x27 : code;
+      } else {
+        break;
+      }
+      if (keepChars) {
+        if (total === chars.length) chars = this.growWordChars();
+        chars[total++] = kept;
+      }
+      if (kept < 0x80) {
+        pending |= kept << ((bytes & 3) << 3);
+        if ((++bytes & 3) === 0) {
+          h = mixBlock(h, pending);
+          pending = 0;
+        }
+      } else {
+        const count = kept < 0x800 ? 2 : 3;
+        for (let b = 0; b < count; b++) {
+          const byte = count === 2 ? (b === 0 ? 0xc0 | (kept >>> 6) : 0x80 | (kept & 0x3f)) : b === 0 ? 0xe0 | (kept >>> 12) : b === 1 ? 0x80 | ((kept >>> 6) & 0x3f) : 0x80 | (kept & 0x3f);
+          pending |= byte << ((bytes & 3) << 3);
+          if ((++bytes & 3) === 0) {
+            h = mixBlock(h, pending);
+            pending = 0;
+          }
+        }
+      }
+      previousClass = cls;
+      i++;
+      if (single) break;
+    }
+    this.wordCharTotal = total;
+    if (letters === 0) {
+      const bucket = Math.min(digits, 5) - 1;
+      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
+    } else if (digits >= 3) {
+      this.addToken(CODE, this.codeHash, -1, -1, "[code]");
+    } else {
+      const name = this.withNames ? charCodesToString(chars, charStart, total) : "";
+      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+      this.addToken(WORD, hash, charStart, total, name);
+    }
+    return i;
+  }
+
+  private growWordChars(): Uint16Array {
+    const grown = new Uint16Array(this.wordChars.length * 2);
+    grown.set(this.wordChars);
+    this.wordChars = grown;
+    return grown;
+  }
+
+  private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string): void {
+    if (this.tokenTotal >= this.maxTokens) {
+      this.hasMoreText = true; // one token past the limit: the text is cut here
+      return;
+    }
+    const index = this.tokenTotal;
+    if (index === this.tokenHashes.length) this.growTokens();
+    this.tokenHashes[index] = hash;
+    this.tokenKinds[index] = kind;
+    this.tokenCharStart[index] = charStart;
+    this.tokenCharEnd[index] = charEnd;
+    if (this.withNames) this.tokenNames[index] = name;
+    this.tokenTotal = index + 1;
+  }
+
+  private growTokens(): void {
+    const size = this.tokenHashes.length * 2;
+    const hashes = new Uint32Array(size);
+    hashes.set(this.tokenHashes);
+    this.tokenHashes = hashes;
+    const kinds = new Uint8Array(size);
+    kinds.set(this.tokenKinds);
+    this.tokenKinds = kinds;
+    const starts = new Int32Array(size);
+    starts.set(this.tokenCharStart);
+    this.tokenCharStart = starts;
+    const ends = new Int32Array(size);
+    ends.set(this.tokenCharEnd);
+    this.tokenCharEnd = ends;
+  }
+}
