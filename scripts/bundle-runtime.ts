@@ -4,8 +4,12 @@
 import { gzipSync } from "node:zlib";
 import { build } from "esbuild";
 
-/** Ceilings for the minified runtime bundle (ours + msgpackr's decoder). */
-export const RUNTIME_BUNDLE_CEILING = { raw: 64 * 1024, gzip: 20 * 1024 };
+/**
+ * Ceilings for the minified runtime bundle (ours + msgpackr's decoder). Raised from 64 KiB / 20 KiB
+ * for normalization 2 (evasion folding): the UTS #39 lookalike table and the folding rules took the
+ * bundle from 55,238 B / 20,392 B gzip to 65,151 B / 24,237 B gzip (the table alone is 1,078 B minified).
+ */
+export const RUNTIME_BUNDLE_CEILING = { raw: 72 * 1024, gzip: 24 * 1024 };
 
 /** Bundles runtime/index.ts and returns its sizes. */
 export async function bundleRuntime(): Promise<{ raw: number; gzip: number; ours: number; code: Uint8Array }> {

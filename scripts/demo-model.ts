@@ -38,7 +38,7 @@ const DEMO_BUILD_EPOCH = "1767225600";
  * Character 3-4-grams stay on here, whatever the build default: the demo spam uses look-alike
  * spellings ("fr3e"), and without them this model refuses 11 of the 6000 demo support e-mails
  * at SMTP time as spam (short ones such as "Can't log in / login broken"); with them, none.
- * Mean weighting, 10 epochs and plain SGD (--no-adaptive-rates) are pinned too, with the build's setting search off and the
+ * Mean weighting, 10 epochs, plain SGD (--no-adaptive-rates) and normalization 1 (--no-fold-evasion) are pinned too, with the build's setting search off and the
  * validation split of that time (near-identical texts split like other rows; the build
  * defaults became TF-IDF and 5 epochs, then a search and a near-duplicate-aware split, later): the Worker's review band, EMAIL_MIN_SCORE 0.7 and the tests that pin them were
  * measured with this recipe, and under the new defaults a bare "hello" scores 0.83 "ok"
@@ -55,6 +55,7 @@ export const DEMO_MODEL_ARGS = [
   "--no-adaptive-rates",
   "--search-time", "0",
   "--near-duplicates", "apart",
+  "--no-fold-evasion",
   "--target-precision", "spam=0.99",
   "--target-recall", "spam=0.9,abusive=0.9",
   "--review-below", "0.6",
@@ -67,7 +68,7 @@ export const DEMO_MODEL_ARGS = [
  * The CLI arguments of the routing model: subject and body of each support e-mail, its
  * topic as the label, within a 128 KiB budget (the Worker bundles both models). No policy:
  * the e-mail handler's EMAIL_MIN_SCORE decides when a topic is too uncertain to route.
- * Weighting and epochs are pinned for the same reason as above.
+ * Weighting, epochs and normalization 1 are pinned for the same reason as above.
  */
 export const DEMO_ROUTING_MODEL_ARGS = [
   "build",
@@ -80,6 +81,7 @@ export const DEMO_ROUTING_MODEL_ARGS = [
   "--no-adaptive-rates",
   "--search-time", "0",
   "--near-duplicates", "apart",
+  "--no-fold-evasion",
   "--threads", "1",
   "--quiet",
   "--force",
@@ -87,11 +89,11 @@ export const DEMO_ROUTING_MODEL_ARGS = [
 
 /**
  * The demo shadow candidate: the moderation recipe under today's build defaults (TF-IDF
- * weighting, 5 epochs, adaptive rates) instead of the pinned mean weighting, 10 epochs and
- * plain SGD: exactly the kind of change an operator wants to see on live traffic before
- * promoting it.
+ * weighting, 5 epochs, adaptive rates, evasion folding) instead of the pinned mean weighting,
+ * 10 epochs, plain SGD and normalization 1: exactly the kind of change an operator wants to
+ * see on live traffic before promoting it.
  */
-export const DEMO_CANDIDATE_MODEL_ARGS = DEMO_MODEL_ARGS.filter((arg, i, all) => !["--weighting", "--epochs", "--no-adaptive-rates"].includes(arg) && !["--weighting", "--epochs"].includes(all[i - 1]));
+export const DEMO_CANDIDATE_MODEL_ARGS = DEMO_MODEL_ARGS.filter((arg, i, all) => !["--weighting", "--epochs", "--no-adaptive-rates", "--no-fold-evasion"].includes(arg) && !["--weighting", "--epochs"].includes(all[i - 1]));
 
 interface DemoModelRecipe {
   path: string;

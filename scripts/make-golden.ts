@@ -1,9 +1,11 @@
-// Writes test/fixtures/golden/tiny-v3.sluice, the golden file of the current format version,
-// pinned by test/runtime/format/golden-model.test.ts. Run only when the format version changes (then
-// rename the output for the new version and keep the older files: the loader must keep reading them):
+// Writes test/fixtures/golden/tiny-v3-n2.sluice, the golden file of the current format version and
+// normalization rules, pinned by test/runtime/format/golden-model.test.ts. Run only when the format
+// version or the normalization version changes (then rename the output and keep the older files:
+// the loader must keep reading them, and featurize their texts exactly as before):
 //   npm run golden
 // tiny.sluice is the version 1 file this script wrote before version 2 existed, tiny-v2.sluice the
-// version 2 file it wrote before version 3; both are kept as they are.
+// version 2 file it wrote before version 3, tiny-v3.sluice the version 3 file with normalization 1
+// it wrote before normalization 2 (evasion folding); all are kept as they are.
 import { writeFileSync } from "node:fs";
 import { build } from "../compiler/build/build.ts";
 import { defaultBuildSettings } from "../compiler/build/build-settings.ts";
@@ -20,7 +22,7 @@ const examples = [
   { text: "返金してください", labels: ["billing"] },
 ];
 // Every setting the file depends on is spelled out, so the script reproduces it whatever the defaults become.
-const settings = { ...defaultBuildSettings(), weighting: "mean" as const, dims: 4, hashBits: 12, charSpan: [0, 0] as [number, number], epochs: 20, holdout: 0, calibrate: false, minDocs: 1, fineTuneEpochs: 1, unspacedScripts: true, searchTime: 0 };
+const settings = { ...defaultBuildSettings(), weighting: "mean" as const, dims: 4, hashBits: 12, charSpan: [0, 0] as [number, number], epochs: 20, holdout: 0, calibrate: false, minDocs: 1, fineTuneEpochs: 1, unspacedScripts: true, foldEvasion: true, searchTime: 0 };
 const { bytes } = await build({ examples, settings, buildTime: "2026-01-01T00:00:00.000Z", dataName: "golden-inline" });
-writeFileSync(new URL("../test/fixtures/golden/tiny-v3.sluice", import.meta.url), bytes);
-console.log(`wrote test/fixtures/golden/tiny-v3.sluice (${bytes.length} bytes)`);
+writeFileSync(new URL("../test/fixtures/golden/tiny-v3-n2.sluice", import.meta.url), bytes);
+console.log(`wrote test/fixtures/golden/tiny-v3-n2.sluice (${bytes.length} bytes)`);

@@ -11,7 +11,7 @@ import type { SourceBuild } from "./build-input.ts";
 /** The featurizer settings a build records in its model (this runtime's normalization rules). */
 export function featurizerSettingsOf(settings: BuildSettings): FeaturizerSettings {
   return {
-    normalization: NORMALIZATION_VERSION,
+    normalization: settings.foldEvasion ? NORMALIZATION_VERSION : 1,
     wordSpan: settings.wordSpan,
     charMin: settings.charSpan[0],
     charMax: settings.charSpan[1],

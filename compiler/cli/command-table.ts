@@ -204,7 +204,19 @@ export const COMMAND_TABLE = {
   report: {
     arguments: "<model> <data>",
     summary: "one self-contained, accessible HTML report with charts and tables",
-    groups: [DATA, { title: "output", options: { "--out": { value: "file", default: "report.html", description: "output HTML file" }, "--force": FORCE, "--quiet": QUIET } }],
+    details: ["With --evasion FILE (no model or data): the evasion suite's results (npm run bench:evasion) as a page instead."],
+    groups: [
+      DATA,
+      {
+        title: "output",
+        options: {
+          "--evasion": { value: "file", description: "draw the evasion suite's results (test/bench/results/evasion.json) instead of a model's report" },
+          "--out": { value: "file", default: "report.html", description: "output HTML file" },
+          "--force": FORCE,
+          "--quiet": QUIET,
+        },
+      },
+    ],
   },
   "traffic-report": {
     arguments: "<model>",

@@ -8,9 +8,13 @@ import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
 import { finish, mixBlock, mixTail } from "./murmur3.ts";
 import { WORD_EDGE } from "./token-kinds.ts";
 
-/** Appends the character n-grams of the word `chars[first .. first + wordLength)`. */
-export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer): void {
+/**
+ * Appends the character n-grams of the word `chars[first .. first + wordLength)`; with names,
+ * `source` (the word's original text when folding changed it, else null) is each one's source.
+ */
+export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer, source: string | null): void {
   const names = out.names;
+  const sources = out.sources;
   const framedLength = wordLength + 2; // the word with an edge byte on each side
   for (let start = 0; start < framedLength; start++) {
     // MurmurHash3 of the UTF-8 bytes of framed[start .. start + length), for each length,
@@ -44,6 +48,7 @@ export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength:
       if (length === 1 && isEdge) continue; // an edge alone says nothing
       pushSlot(out, finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes) & mask);
       if (names) names.push(charGramName(chars, first, wordLength, start, length));
+      if (sources) sources.push(source);
     }
   }
 }

@@ -23,6 +23,7 @@ import {
 import { chunkEnd, isEmailAddress, isOpeningBracket, lowerAscii, startsWithAscii, trimTrailingPunctuation, urlHostOffset } from "./chunk-shapes.ts";
 import type { FeatureSeeds } from "./feature-seeds.ts";
 import { Murmur3Stream, finish, mixBlock, mixTail, murmur3String } from "./murmur3.ts";
+import { capRuns, endsInRepeatedDigit, hashCodes, leetLetterOfDigit, paddingEnd, symbolLetter } from "./evasion-rules.ts";
 import { ASCII_WORD_BYTES, CODE, EMAIL, MARK, NUMBER, NUMBER_NAMES, URL, WORD } from "./token-kinds.ts";
 
 /** Reads tokens into reusable typed arrays; the featurizer reads them back after `tokenize`. */
@@ -52,10 +53,34 @@ export class Tokenizer {
 
   /** Letters of scripts without spaces become one token each (featurizer setting unspacedScripts). */
   private readonly splitUnspaced: boolean;
+  /** The evasion folding rules of normalization 2 (leetspeak, padding, runs, spaced letters). */
+  private readonly fold: boolean;
 
-  constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false) {
+  /** Names mode only: where each token lies in the text read (for the original span in explanations). */
+  tokenTextStart: number[] = [];
+  tokenTextEnd: number[] = [];
+  /**
+   * Features that are not tokens (no word pairs, no character n-grams): the one-run form of a
+   * word whose letter runs were shortened ("freeeee" → token "fre", extra "free").
+   */
+  extraHashes: number[] = [];
+  extraNames: string[] = [];
+  extraTextStart: number[] = [];
+  extraTextEnd: number[] = [];
+  extraTotal = 0;
+
+  // The open run of single letters (see addToken).
+  private text = "";
+  private singleCount = 0;
+  private singleFirst = 0;
+  private singleEnd = 0;
+  private singleSeparator = -1;
+  private singleLetters = new Uint16Array(64);
+
+  constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false, fold = false) {
     this.maxTokens = maxTokens;
     this.splitUnspaced = splitUnspaced;
+    this.fold = fold;
     this.wordSeed = seeds.word;
     this.hostSeed = seeds.host;
     this.numberHashes = Uint32Array.from(NUMBER_NAMES, (name) => murmur3String(name, seeds.shape));
@@ -75,6 +100,9 @@ export class Tokenizer {
     this.tokenTotal = 0;
     this.wordCharTotal = 0;
     this.hasMoreText = false;
+    this.extraTotal = 0;
+    this.text = text;
+    this.singleCount = 0;
     const length = text.length;
     let i = 0;
     while (i < length && !this.hasMoreText) {
@@ -86,6 +114,54 @@ export class Tokenizer {
       const plainEnd = this.plainChunks ? this.readPlainChunk(text, i, length) : -1;
       i = plainEnd >= 0 ? plainEnd : this.readChunk(text, i, length);
     }
+    if (this.singleCount > 0) this.joinSingles();
+    this.text = "";
+  }
+
+  private addExtra(hash: number, name: string, textStart: number, textEnd: number): void {
+    const index = this.extraTotal++;
+    this.extraHashes[index] = hash;
+    if (this.withNames) {
+      this.extraNames[index] = name;
+      this.extraTextStart[index] = textStart;
+      this.extraTextEnd[index] = textEnd;
+    }
+  }
+
+  /** A single letter at `at` was read: it continues the open run, or starts a new one. */
+  private extendSingles(at: number): void {
+    const text = this.text;
+    const separator = at > 0 ? text.charCodeAt(at - 1) : -1;
+    const continues = this.singleCount > 0 && at === this.singleEnd + 1 && (this.singleCount === 1 || separator === this.singleSeparator);
+    if (!continues) {
+      if (this.singleCount > 0) this.joinSingles();
+      this.singleFirst = this.tokenTotal;
+    } else if (this.singleCount === 1) {
+      this.singleSeparator = separator;
+    }
+    if (this.singleCount === this.singleLetters.length) {
+      const grown = new Uint16Array(this.singleLetters.length * 2);
+      grown.set(this.singleLetters);
+      this.singleLetters = grown;
+    }
+    this.singleLetters[this.singleCount++] = lowerAscii(text.charCodeAt(at));
+    this.singleEnd = at + 1;
+  }
+
+  /** Closes the open run of single letters: three or more become one word. */
+  private joinSingles(): void {
+    const count = this.singleCount;
+    this.singleCount = 0;
+    const first = this.singleFirst;
+    if (count < 3 || first + count > this.tokenTotal) return; // the run's last letter may have been past the token limit
+    const last = first + count - 1;
+    this.tokenHashes[first] = hashCodes(this.singleLetters, 0, count, this.wordSeed);
+    this.tokenCharEnd[first] = this.tokenCharEnd[last];
+    if (this.withNames) {
+      this.tokenNames[first] = charCodesToString(this.singleLetters, 0, count);
+      this.tokenTextEnd[first] = this.tokenTextEnd[last];
+    }
+    this.tokenTotal = first + 1;
   }
 
   /** Off only in tests, to check that the fast path reads exactly what readChunk reads. */
@@ -107,6 +183,7 @@ export class Tokenizer {
     let digits = 0;
     let apostrophes = 0;
     let previous = 0; // the last byte hashed
+    let beforePrevious = 0;
     let i = start;
     while (i < length) {
       const code = text.charCodeAt(i);
@@ -127,11 +204,16 @@ export class Tokenizer {
         h = mixBlock(h, pending);
         pending = 0;
       }
+      // Three of one letter in a row ("freeee"): the folding reader bounds the run.
+      if (byte === previous && byte === beforePrevious && byte > 0x39 && this.fold) return -1;
+      beforePrevious = previous;
       previous = byte;
       i++;
     }
     const bytes = i - start;
     if (bytes === 0) return -1;
+    // Letters mixed with digits ("fr33"): the folding reader decides whether they are leetspeak.
+    if (digits > 0 && digits + apostrophes < bytes && this.fold) return -1;
     let end = i;
     let markCode = 0;
     let markRepeats = 0;
@@ -160,17 +242,17 @@ export class Tokenizer {
     }
     if (digits + apostrophes === bytes) {
       const bucket = Math.min(digits, 5) - 1;
-      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
+      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket], start, i);
     } else if (digits >= 3) {
-      this.addToken(CODE, this.codeHash, -1, -1, "[code]");
+      this.addToken(CODE, this.codeHash, -1, -1, "[code]", start, i);
     } else {
       const name = this.withNames ? charCodesToString(this.wordChars, charStart, charStart + bytes) : "";
       const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
-      this.addToken(WORD, hash, charStart, charStart + bytes, name);
+      this.addToken(WORD, hash, charStart, charStart + bytes, name, start, i);
     }
     if (markCode !== 0) {
       const hash = this.markHashes[(markCode === 0x3f ? 0 : 3) + markRepeats - 1];
-      this.addToken(MARK, hash, -1, -1, this.withNames ? String.fromCharCode(markCode).repeat(markRepeats) : "");
+      this.addToken(MARK, hash, -1, -1, this.withNames ? String.fromCharCode(markCode).repeat(markRepeats) : "", i, end);
     }
     return end;
   }
@@ -199,6 +281,7 @@ export class Tokenizer {
     }
     const tokensBefore = this.tokenTotal;
     const charsBefore = this.wordCharTotal;
+    const extrasBefore = this.extraTotal;
     this.atSign = -1;
     const end = this.tokenizeSpan(text, start, length);
     const atSign = this.atSign;
@@ -209,7 +292,9 @@ export class Tokenizer {
         this.tokenTotal = tokensBefore;
         this.wordCharTotal = charsBefore;
         this.hasMoreText = false;
-        this.addToken(EMAIL, this.emailHash, -1, -1, "[email]");
+        this.extraTotal = Math.min(this.extraTotal, extrasBefore);
+        if (this.singleCount > 0) this.singleCount = Math.max(0, Math.min(this.singleCount, tokensBefore - this.singleFirst));
+        this.addToken(EMAIL, this.emailHash, -1, -1, "[email]", coreStart, coreEnd);
         return this.tokenizeSpan(text, coreEnd, length);
       }
     }
@@ -231,7 +316,7 @@ export class Tokenizer {
     stream.reset(this.hostSeed);
     for (let i = hostStart; i < hostEnd; i++) stream.pushCodePoint(lowerAscii(text.charCodeAt(i)));
     const name = this.withNames ? `[url ${text.slice(hostStart, hostEnd).toLowerCase()}]` : "";
-    this.addToken(URL, stream.digest(), -1, -1, name);
+    this.addToken(URL, stream.digest(), -1, -1, name, hostStart, hostEnd);
   }
 
   /**
@@ -247,18 +332,20 @@ export class Tokenizer {
       if (cls === SPACE) break;
       if (cls === LETTER || cls === DIGIT) {
         i = this.readWord(text, i, end);
+      } else if (this.fold && (code === 0x24 || code === 0x20ac) && i + 1 < end && classOf(text.charCodeAt(i + 1)) === LETTER) {
+        i = this.readWord(text, i, end); // "$ex", "€asy": a symbol standing for a letter
       } else if (cls === KEPT_PUNCTUATION) {
         let runEnd = i + 1;
         while (runEnd < end && text.charCodeAt(runEnd) === code) runEnd++;
         const repeats = Math.min(runEnd - i, 3);
         stream.reset(this.wordSeed);
         for (let r = 0; r < repeats; r++) stream.pushCodePoint(code);
-        this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCharCode(code).repeat(repeats) : "");
+        this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCharCode(code).repeat(repeats) : "", i, runEnd);
         i = runEnd;
       } else if (cls === EMOJI) {
         stream.reset(this.wordSeed);
         stream.pushCodePoint(code);
-        this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCharCode(code) : "");
+        this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCharCode(code) : "", i, i + 1);
         i++;
       } else if (cls === HIGH_SURROGATE && i + 1 < end) {
         const low = text.charCodeAt(i + 1);
@@ -267,7 +354,7 @@ export class Tokenizer {
           if (classOfAstral(codePoint) === EMOJI) {
             stream.reset(this.wordSeed);
             stream.pushCodePoint(codePoint);
-            this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCodePoint(codePoint) : "");
+            this.addToken(MARK, stream.digest(), -1, -1, this.withNames ? String.fromCodePoint(codePoint) : "", i, i + 2);
           }
           i += 2;
         } else {
@@ -281,15 +368,27 @@ export class Tokenizer {
     return i;
   }
 
-  /** Reads one word/number/code run starting at `start`; returns where it ended. */
+  /**
+   * Reads one word/number/code run starting at `start`; returns where it ended. Under the
+   * evasion folding rules (normalization 2; see evasion-rules.ts) it also reads symbols and
+   * digits standing for letters, drops padding inside a word and bounds runs of one letter;
+   * those rewrite the word's characters, which are therefore always kept here (and dropped
+   * again when nothing else needs them), and then hash it again.
+   */
   private readWord(text: string, start: number, end: number): number {
     // Locals instead of fields in this loop: it runs once per character of every text.
     let chars = this.wordChars;
     let total = this.wordCharTotal;
     const charStart = total;
-    const keepChars = this.keepWordChars;
+    const fold = this.fold;
     let letters = 0;
     let digits = 0;
+    let nonLeetDigits = 0;
+    let leadingDigits = 0;
+    let digitThenLetter = false;
+    let longRun = false;
+    let runLength = 0;
+    let previousKept = -1;
     let i = start;
     let previousClass = -1;
     const splitUnspaced = this.splitUnspaced;
@@ -300,7 +399,7 @@ export class Tokenizer {
     let bytes = 0;
     while (i < end) {
       const code = text.charCodeAt(i);
-      const cls = classOf(code);
+      let cls = classOf(code);
       let kept: number;
       if (cls === LETTER) {
         if (splitUnspaced && code >= 0x0e00 && isUnspacedLetter(code)) {
@@ -309,9 +408,12 @@ export class Tokenizer {
         }
         kept = code >= 0x41 && code <= 0x5a ? code + 32 : code;
         letters++;
+        if (digits > 0) digitThenLetter = true;
       } else if (cls === DIGIT) {
         kept = code;
         digits++;
+        if (letters === 0) leadingDigits++;
+        if (leetLetterOfDigit(code) === 0) nonLeetDigits++;
       } else if (cls === DROPPED) {
         i++;
         continue;
@@ -323,12 +425,23 @@ export class Tokenizer {
         if (!joins) break;
         kept = cls === APOSTROPHE ? 0x27 : code;
       } else {
-        break;
+        if (!fold) break;
+        const nextClass = i + 1 < end ? classOf(text.charCodeAt(i + 1)) : -1;
+        const letter = symbolLetter(code, previousClass, nextClass);
+        if (letter === 0) {
+          const after = previousClass === LETTER || previousClass === DIGIT ? paddingEnd(text, i, end) : i;
+          const afterClass = after > i && after < end ? classOf(text.charCodeAt(after)) : -1;
+          if (afterClass !== LETTER && !(afterClass === DIGIT && previousClass === LETTER)) break;
+          i = after; // "fr*ee": padding inside a word is dropped
+          continue;
+        }
+        if (code === 0x40 && this.atSign < 0) this.atSign = i; // still looked at as an e-mail address
+        kept = letter;
+        cls = LETTER;
+        letters++;
       }
-      if (keepChars) {
-        if (total === chars.length) chars = this.growWordChars();
-        chars[total++] = kept;
-      }
+      if (total === chars.length) chars = this.growWordChars();
+      chars[total++] = kept;
       if (kept < 0x80) {
         pending |= kept << ((bytes & 3) << 3);
         if ((++bytes & 3) === 0) {
@@ -346,21 +459,44 @@ export class Tokenizer {
           }
         }
       }
+      if (kept !== previousKept) {
+        runLength = 1;
+        previousKept = kept;
+      } else if (++runLength >= 3 && cls === LETTER) {
+        longRun = true;
+      }
       previousClass = cls;
       i++;
       if (single) break;
     }
-    this.wordCharTotal = total;
+    const keep = this.keepWordChars;
+    // Digits stand for letters ("m0ney", "h4x0r", "fr33") only under evasion-rules.ts's conditions.
+    const leet = fold && digits > 0 && nonLeetDigits === 0 && (digits < letters || (digits === letters && digits < 3)) &&
+      (leadingDigits === 0 || (leadingDigits === 1 && letters >= 3)) && (digitThenLetter || endsInRepeatedDigit(chars, charStart, total));
     if (letters === 0) {
       const bucket = Math.min(digits, 5) - 1;
-      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket]);
-    } else if (digits >= 3) {
-      this.addToken(CODE, this.codeHash, -1, -1, "[code]");
+      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket], start, i);
+    } else if (digits >= 3 && !leet) {
+      this.addToken(CODE, this.codeHash, -1, -1, "[code]", start, i);
     } else {
+      let hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+      if (leet || (longRun && fold)) {
+        if (leet) {
+          for (let c = charStart; c < total; c++) {
+            const letter = leetLetterOfDigit(chars[c]);
+            if (letter !== 0) chars[c] = letter;
+          }
+        }
+        const capped = capRuns(chars, charStart, total);
+        const doubled = capped.doubled;
+        if (doubled !== null) this.addExtra(hashCodes(doubled, 0, doubled.length, this.wordSeed), this.withNames ? charCodesToString(doubled, 0, doubled.length) : "", start, i);
+        total = capped.end;
+        hash = hashCodes(chars, charStart, total, this.wordSeed);
+      }
       const name = this.withNames ? charCodesToString(chars, charStart, total) : "";
-      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
-      this.addToken(WORD, hash, charStart, total, name);
+      this.addToken(WORD, hash, charStart, total, name, start, i);
     }
+    this.wordCharTotal = keep ? total : charStart;
     return i;
   }
 
@@ -371,12 +507,28 @@ export class Tokenizer {
     return grown;
   }
 
-  private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string): void {
+  /**
+   * Appends one token. Under the folding rules, a run of three or more single letters each one
+   * separator apart, the same separator each time ("f r e e", "f.r.e.e", "f-r-e-e"), becomes
+   * one word: the run is held open while it grows and joined when something else follows.
+   */
+  private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string, textStart: number, textEnd: number): void {
+    if (this.fold) {
+      if (kind === WORD && textEnd - textStart === 1) {
+        this.extendSingles(textStart);
+      } else if (this.singleCount > 0) {
+        this.joinSingles();
+      }
+    }
     if (this.tokenTotal >= this.maxTokens) {
       this.hasMoreText = true; // one token past the limit: the text is cut here
       return;
     }
     const index = this.tokenTotal;
+    if (this.withNames) {
+      this.tokenTextStart[index] = textStart;
+      this.tokenTextEnd[index] = textEnd;
+    }
     if (index === this.tokenHashes.length) this.growTokens();
     this.tokenHashes[index] = hash;
     this.tokenKinds[index] = kind;

@@ -6,7 +6,7 @@
 
 import { ModelFormatError } from "../errors.ts";
 import type { FeaturizerSettings } from "../featurizer/featurizer.ts";
-import { NORMALIZATION_VERSION } from "../featurizer/normalize.ts";
+import { NORMALIZATION_VERSIONS } from "../featurizer/normalize.ts";
 import type { Policy } from "../model/policy.ts";
 import { isUnitInterval, isValidTemperature, isValidWeightStep, MAX_WEIGHT_STEP, MIN_WEIGHT_STEP, TEMPERATURE_MAX, TEMPERATURE_MIN } from "./header-limits.ts";
 import { metadataProblem } from "./validate-metadata.ts";
@@ -89,7 +89,7 @@ export function validateHeader(value: unknown, offset: number, version: number):
   const featurizer = header.featurizer;
   if (!isPlainMap(featurizer)) return fail("featurizer", "a map");
   const f = featurizer as Record<string, unknown>;
-  f.normalization === NORMALIZATION_VERSION || fail("featurizer.normalization", `version ${NORMALIZATION_VERSION} (this runtime's rules)`);
+  NORMALIZATION_VERSIONS.includes(f.normalization as number) || fail("featurizer.normalization", `version ${NORMALIZATION_VERSIONS.join(" or ")} (this runtime's rules)`);
   checkInteger(f.wordSpan, 1, 6) || fail("featurizer.wordSpan", "an integer from 1 to 6");
   checkInteger(f.charMin, 0, 12) || fail("featurizer.charMin", "an integer from 0 to 12");
   checkInteger(f.charMax, 0, 12) || fail("featurizer.charMax", "an integer from 0 to 12");

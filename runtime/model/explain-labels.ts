@@ -38,6 +38,7 @@ export function explainLabels(scored: ScoredText, text: string, labelIndexes: nu
     // row when there is one per label, else the first inner node on the path.
     const outputRow = header.head === "tree" ? (scored.tree as LabelTree).firstNodeOf(k) : k;
     const byName = new Map<string, number>();
+    const foldedFrom = new Map<string, Set<string>>();
     const outputScale = outputScales === null ? 1 : outputScales[outputRow];
     for (let f = 0; f < named.count; f++) {
       const row = index.rowOf(named.slots[f]);
@@ -50,9 +51,14 @@ export function explainLabels(scored: ScoredText, text: string, labelIndexes: nu
       const contribution = ((weight * rowScale * outputScale * dot) / totalWeight) * inverseTemperature;
       const name = (named.names as string[])[f];
       byName.set(name, (byName.get(name) ?? 0) + contribution);
+      const source = named.sources?.[f];
+      if (source) foldedFrom.set(name, (foldedFrom.get(name) ?? new Set()).add(source));
     }
     const features = [...byName.entries()]
-      .map(([feature, contribution]) => ({ feature, contribution }))
+      .map(([feature, contribution]) => {
+        const sources = foldedFrom.get(feature);
+        return sources ? { feature, contribution, foldedFrom: [...sources] } : { feature, contribution };
+      })
       .sort((a, b) => Math.abs(b.contribution) - Math.abs(a.contribution) || (a.feature < b.feature ? -1 : 1))
       .slice(0, featureCount);
     const bias = outputBias[outputRow] * inverseTemperature;

@@ -52,6 +52,11 @@ export interface FeatureContribution {
   feature: string;
   /** Its exact share of the (temperature-scaled) logit. */
   contribution: number;
+  /**
+   * Present when evasion folding (normalization 2) produced the feature: the original text it
+   * was read from, e.g. ["frее"] (with a Cyrillic е) for the word "free", or ["f r e e"].
+   */
+  foldedFrom?: string[];
 }
 
 export interface LabelExplanation {

@@ -2,10 +2,10 @@
 // pieces of 2-5 characters besides its own slot), yet a word's features always add the same
 // rows, however often it occurs. So such a model keeps a bounded cache per isolate: word →
 // the weighted, scaled sum of its features' rows, how many of them have a row and their total
-// weight. A word's hash picks a set of two entries, and the word is compared with theirs
-// character by character, so a hit is exactly that word; a miss asks the featurizer for the
-// word's features (the one implementation), sums their rows and overwrites one of the two
-// entries, each in turn. The sums are float64, so a cached score differs from the
+// weight. A word's hash picks a set of two entries, and the word is compared with theirs, hash
+// and then character by character, so a hit is exactly that word (even if two words' hashes
+// collided); a miss asks the featurizer for the word's features (the one implementation), sums
+// their rows and overwrites the less recently used of the two. The sums are float64, so a cached score differs from the
 // straightforward one only by the order of additions (test/runtime/model/word-feature-cache.test.ts).
 
 import type { FeatureBuffer, Featurizer } from "../featurizer/featurizer.ts";
@@ -26,12 +26,16 @@ export const MOST_ENTRIES = 4096;
 export class WordFeatureCache {
   /** Entries the cache can hold; it never holds more. */
   readonly capacity: number;
-  /** Words whose sums were computed rather than found (its parity picks the entry a miss overwrites). */
+  /** Words whose sums were computed rather than found (tests and benchmarks read it). */
   misses = 0;
   /** Of the last `addWords` call: features with a row, and their total weight. */
   known = 0;
   weight = 0;
   private readonly width: number;
+  /** Per entry: the word's hash (the token's, which the featurizer computes from its characters). */
+  private readonly wordHashes: Uint32Array;
+  /** Per set of two entries: the one used last (the other is overwritten next). */
+  private readonly lastUsed: Uint8Array;
   /** Per entry: the word's length (0: empty), then its characters. */
   private readonly words: Uint16Array;
   /** Per entry (and one spare for a long word): the row sum (width values), its total weight, its count of known features. */
@@ -39,11 +43,13 @@ export class WordFeatureCache {
   private readonly wordSum: Float64Array;
 
   constructor(width: number) {
-    const entryBytes = 8 * (width + 2) + 2 * (LONGEST_CACHED_WORD + 1);
+    const entryBytes = 8 * (width + 2) + 4 + 2 * (LONGEST_CACHED_WORD + 1);
     let sets = MOST_ENTRIES / 2;
     while (sets > 1 && 2 * sets * entryBytes > CACHE_BYTES) sets >>= 1;
     this.capacity = 2 * sets;
     this.width = width;
+    this.wordHashes = new Uint32Array(this.capacity);
+    this.lastUsed = new Uint8Array(sets);
     this.words = new Uint16Array(this.capacity * (LONGEST_CACHED_WORD + 1));
     this.sums = new Float64Array((this.capacity + 1) * (width + 2)); // and a spare entry for long words
     this.wordSum = new Float64Array(width);
@@ -57,7 +63,7 @@ export class WordFeatureCache {
   addWords(featurizer: Featurizer, rows: RowSummer, out: Float64Array, scratch: FeatureBuffer): void {
     const tokens = featurizer.tokens;
     const { tokenKinds, tokenHashes, tokenCharStart, tokenCharEnd, wordChars } = tokens;
-    const { width, sums, words } = this;
+    const { width, sums, words, wordHashes, lastUsed } = this;
     const setMask = (this.capacity >> 1) - 1;
     const stride = width + 2;
     const wordStride = LONGEST_CACHED_WORD + 1;
@@ -67,11 +73,12 @@ export class WordFeatureCache {
       if (tokenKinds[t] !== WORD) continue;
       const first = tokenCharStart[t];
       const length = tokenCharEnd[t] - first;
-      const set = tokenHashes[t] & setMask;
+      const hash = tokenHashes[t];
+      const set = hash & setMask;
       let entry = -1;
       if (length <= LONGEST_CACHED_WORD) {
         for (let way = 2 * set; way < 2 * set + 2 && entry < 0; way++) {
-          if (words[way * wordStride] !== length) continue;
+          if (wordHashes[way] !== hash || words[way * wordStride] !== length) continue;
           let c = 0;
           while (c < length && words[way * wordStride + 1 + c] === wordChars[first + c]) c++;
           if (c === length) entry = way;
@@ -79,7 +86,7 @@ export class WordFeatureCache {
       }
       if (entry < 0) {
         // A miss: sum the word's rows into a new entry (a long word into the spare last one).
-        entry = length > LONGEST_CACHED_WORD ? this.capacity : 2 * set + (this.misses & 1);
+        entry = length > LONGEST_CACHED_WORD ? this.capacity : 2 * set + (lastUsed[set] ^ 1);
         scratch.count = 0;
         featurizer.wordFeatures(t, scratch);
         const wordSum = this.wordSum;
@@ -90,6 +97,7 @@ export class WordFeatureCache {
         sums[entry * stride + width + 1] = summed.known;
         if (entry < this.capacity) {
           this.misses++;
+          wordHashes[entry] = hash;
           words[entry * wordStride] = length;
           for (let c = 0; c < length; c++) words[entry * wordStride + 1 + c] = wordChars[first + c];
         }
@@ -98,6 +106,7 @@ export class WordFeatureCache {
       for (let k = 0; k < width; k++) out[k] += sums[base + k];
       weight += sums[base + width];
       known += sums[base + width + 1];
+      if (entry < this.capacity) lastUsed[set] = entry & 1;
     }
     this.known = known;
     this.weight = weight;

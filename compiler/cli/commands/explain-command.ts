@@ -25,7 +25,10 @@ export async function explainCommand(argv: string[]): Promise<number> {
   const lines: string[] = [];
   for (const label of explanation.labels) {
     lines.push(`${label.label}  score ${label.score.toFixed(3)}  logit ${label.logit.toFixed(3)} = bias ${label.bias.toFixed(3)} + features`);
-    for (const f of label.features) lines.push(`  ${f.contribution >= 0 ? "+" : "-"}${Math.abs(f.contribution).toFixed(3)}  ${f.feature}`);
+    for (const f of label.features) {
+      const from = f.foldedFrom ? `  (folded from ${f.foldedFrom.map((s) => JSON.stringify(s)).join(", ")})` : "";
+      lines.push(`  ${f.contribution >= 0 ? "+" : "-"}${Math.abs(f.contribution).toFixed(3)}  ${f.feature}${from}`);
+    }
   }
   lines.push(`${explanation.tokenCount} tokens${explanation.truncated ? " (cut at the token limit)" : ""}; ${explanation.unknownFeatures} features unknown to the model`);
   process.stdout.write(`${lines.join("\n")}\n`);

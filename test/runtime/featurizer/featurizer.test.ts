@@ -18,6 +18,8 @@ const WORDS_ONLY: FeaturizerSettings = {
 };
 
 const DEFAULTS: FeaturizerSettings = { ...WORDS_ONLY, wordSpan: 2, charMin: 3, charMax: 4 };
+/** The defaults under normalization 1 (no evasion folding). */
+const V1: FeaturizerSettings = { ...DEFAULTS, normalization: 1 };
 
 interface Features {
   slots: number[];
@@ -68,12 +70,15 @@ describe("normalization", () => {
   it("removes a zero-width space inside a word", () => {
     // U+200B ZERO WIDTH SPACE is General_Category Cf (format) and not White_Space
     // (UnicodeData.txt, PropList.txt, from memory): it is invisible, so "fr\u200Bee" reads as "free".
-    expect(slotsOf("fr\u200Bee")).toEqual(slotsOf("free"));
+    expect(slotsOf("fr\u200Bee", V1)).toEqual(slotsOf("free", V1));
+    // Version 2 reads the same word and adds the evidence of the attempt.
+    expect(featuresOf("fr\u200Bee").names).toEqual([...featuresOf("free").names, "[hidden-chars]"]);
   });
 
   it("removes a zero-width joiner and a byte order mark inside a word", () => {
     // U+200D ZERO WIDTH JOINER and U+FEFF ZERO WIDTH NO-BREAK SPACE are Cf as well (UnicodeData.txt, from memory).
-    expect(slotsOf("o\u200Dff\uFEFFer")).toEqual(slotsOf("offer"));
+    expect(slotsOf("o\u200Dff\uFEFFer", V1)).toEqual(slotsOf("offer", V1));
+    expect(featuresOf("o\u200Dff\uFEFFer").names).toEqual([...featuresOf("offer").names, "[hidden-chars]"]);
   });
 
   it.each([

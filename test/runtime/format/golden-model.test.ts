@@ -179,3 +179,43 @@ describe("older files under the version 3 runtime", () => {
     expect(explained.tokenCount).toBe(1);
   });
 });
+
+const bytesV3n2 = new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v3-n2.sluice", import.meta.url)));
+
+describe("the version 3 golden model file with normalization 2 (evasion folding)", () => {
+  it("records normalization 2 in its featurizer settings", () => {
+    const view = new DataView(bytesV3n2.buffer, bytesV3n2.byteOffset, bytesV3n2.byteLength);
+    expect(view.getUint16(8, true)).toBe(3);
+    const header = unpack(bytesV3n2.subarray(16, 16 + view.getUint32(12, true))) as Record<string, any>;
+    expect(header.featurizer).toEqual({ normalization: 2, wordSpan: 2, charMin: 0, charMax: 0, hashBits: 12, hashSeed: 0, maxTokens: 2000, unspacedScripts: true });
+  });
+
+  it("scores texts exactly as when it was recorded, evasive spellings as the clean text", () => {
+    expect(bytesV3n2.length).toBe(1644);
+    expect(crc32(bytesV3n2, 0, bytesV3n2.length - 4)).toBe(new DataView(bytesV3n2.buffer, bytesV3n2.byteOffset).getUint32(bytesV3n2.length - 4, true));
+    const model = loadModel(bytesV3n2);
+    expect(model.meta.contentId).toBe("446f368a");
+    const clean = [0.550634503364563, 0.449365496635437];
+    // Cyrillic е and а, leetspeak, spaced letters: the words the model knows.
+    for (const text of ["refund my parcel", "r\u0435fund my p\u0430rcel", "r3fund my p4rcel", "r e f u n d my parcel"]) {
+      expect(Array.from(model.score(text).scores), text).toEqual(clean);
+    }
+  });
+
+  it("explains a folded feature with the original text it came from", () => {
+    const model = loadModel(bytesV3n2);
+    const features = model.explain("r\u0435fund my parcel", { top: 1, features: 20 }).labels[0].features;
+    expect(features.find((f) => f.feature === "refund")?.foldedFrom).toEqual(["r\u0435fund"]);
+    expect(features.find((f) => f.feature === "my")?.foldedFrom).toBeUndefined();
+  });
+});
+
+describe("older files under the normalization 2 runtime", () => {
+  it("keep reading text by normalization 1: no folding, exactly as they were built", () => {
+    // tiny-v3.sluice records normalization 1: the leetspeak word is not "refund" there.
+    const model = loadModel(bytesV3);
+    expect(model.meta.featurizer.normalization).toBe(1);
+    expect(Array.from(model.score("r3fund my parcel").scores)).not.toEqual(Array.from(model.score("refund my parcel").scores));
+    expect(model.explain("r3fund", { top: 1 }).labels[0].features.every((f) => f.foldedFrom === undefined)).toBe(true);
+  });
+});

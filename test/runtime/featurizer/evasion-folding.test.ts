@@ -1,0 +1,173 @@
+// The evasion folding rules of normalization 2, through the features they give: each kind of
+// evasion recovers the clean text's features on hand-written cases, numbers, prices, codes,
+// URLs and e-mail addresses read as version 1 reads them, and folding never throws and is
+// idempotent (fast-check, including lone surrogates and combining marks). The readings of
+// leetspeak are common practice, no source.
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { createFeatureBuffer, createFeaturizer, type FeaturizerSettings } from "../../../runtime/featurizer/featurizer.ts";
+import { TextNormalizer } from "../../../runtime/featurizer/normalize.ts";
+
+const V2: FeaturizerSettings = { normalization: 2, wordSpan: 2, charMin: 3, charMax: 4, hashBits: 20, hashSeed: 0, maxTokens: 2000 };
+const V1: FeaturizerSettings = { ...V2, normalization: 1 };
+
+function featuresOf(text: string, settings = V2): { names: string[]; slots: number[]; sources: (string | null)[] } {
+  const buffer = createFeatureBuffer(16, true);
+  createFeaturizer(settings).featurize(text, buffer);
+  return { names: [...(buffer.names as string[])], slots: Array.from(buffer.slots.subarray(0, buffer.count)), sources: [...(buffer.sources as (string | null)[])] };
+}
+
+/** The words (unigram names) of a text under normalization 2. */
+function wordsOf(text: string): string[] {
+  const buffer = createFeatureBuffer(16, true);
+  createFeaturizer({ ...V2, wordSpan: 1, charMin: 0, charMax: 0 }).featurize(text, buffer);
+  return [...(buffer.names as string[])];
+}
+
+/** Every feature slot of the clean text is among the perturbed text's (which may add evidence features). */
+function expectRecovers(perturbed: string, clean: string, extra: string[] = []): void {
+  const got = featuresOf(perturbed);
+  const want = featuresOf(clean);
+  // Folding appends its own features after the text's: drop the last occurrence of each.
+  for (const name of extra) {
+    const at = got.names.lastIndexOf(name);
+    if (at < 0) continue;
+    got.names.splice(at, 1);
+    got.slots.splice(at, 1);
+  }
+  expect(got.names, perturbed).toEqual(want.names);
+  expect(got.slots, perturbed).toEqual(want.slots);
+}
+
+describe("each kind of evasion recovers the clean text's features", () => {
+  it.each([
+    ["frее mоney", "free money"], // Cyrillic е (U+0435) and о (U+043E)
+    ["FRЕЕ МОNЕY", "FREE MONEY"], // Cyrillic Е, М, О
+    ["сlick hеrе", "click here"], // Cyrillic с (U+0441), е
+    ["ꓑayPal", "paypal"], // Lisu ꓑ (U+A4D1)
+  ])("lookalike letters: %s", (perturbed, clean) => {
+    expectRecovers(perturbed, clean, ["[mixed-script]"]);
+  });
+
+  it.each([
+    ["fr33 m0ney n0w", "free money now"],
+    ["h4x0r l33t", "haxor leet"],
+    ["v1agra 0ffer", "viagra offer"],
+    ["$ex ca$h h@ck sh!t fr€€", "sex cash hack shit free"],
+  ])("leetspeak: %s", (perturbed, clean) => {
+    expectRecovers(perturbed, clean);
+  });
+
+  it.each([
+    ["f r e e money", "free money"],
+    ["f.r.e.e money", "free money"],
+    ["f-r-e-e m-o-n-e-y", "free money"],
+    ["c l i c k  h e r e", "click here"], // two spaces between the spaced words
+  ])("spaced and dotted letters: %s", (perturbed, clean) => {
+    expectRecovers(perturbed, clean);
+  });
+
+  it.each([
+    ["fr*ee mo_ney", "free money"],
+    ["cl~ick he^re", "click here"],
+  ])("padding inside words: %s", (perturbed, clean) => {
+    expectRecovers(perturbed, clean);
+  });
+
+  it("runs of one letter: the one-letter form is the word, the two-letter form an extra feature", () => {
+    expectRecovers("mooooney nooow", "money now", ["mooney", "noow"]);
+    expect(wordsOf("freeeeee")).toEqual(["fre", "free"]);
+    expect(wordsOf("FREEEEE")).toEqual(["fre", "free"]);
+    expect(wordsOf("soooo good")).toEqual(["so", "good", "soo"]);
+  });
+
+  it.each([
+    ["fr\u200Bee mo\u200Dney", "free money"],
+    ["cl\u00ADick h\u2060ere", "click here"], // soft hyphen, word joiner
+    ["fr\u202Eee", "free"], // RIGHT-TO-LEFT OVERRIDE
+  ])("invisible and bidirectional characters: %j", (perturbed, clean) => {
+    expectRecovers(perturbed, clean, ["[hidden-chars]"]);
+  });
+
+  it("mixed: several kinds in one text", () => {
+    expectRecovers("FR33 m\u043en\u200Bey c l i c k h*ere", "free money click here", ["[mixed-script]", "[hidden-chars]"]);
+  });
+});
+
+describe("the evidence features", () => {
+  it("marks a word that mixes scripts, not a text in one other script or Japanese with Latin", () => {
+    expect(featuresOf("frее").names).toContain("[mixed-script]");
+    expect(featuresOf("привет мир").names).not.toContain("[mixed-script]");
+    expect(featuresOf("Tシャツを買う").names).not.toContain("[mixed-script]"); // UTS #39 Highly Restrictive allows Latin + Japanese
+  });
+
+  it("marks hidden characters inside Latin words, not ZWNJ inside a Persian word or ZWJ between emoji", () => {
+    expect(featuresOf("fr\u200Bee").names).toContain("[hidden-chars]");
+    // Persian "می‌خواهم" (I want) is written with U+200C ZERO WIDTH NON-JOINER (common practice, from memory).
+    expect(featuresOf("\u0645\u06cc\u200c\u062e\u0648\u0627\u0647\u0645").names).not.toContain("[hidden-chars]");
+    expect(featuresOf("\u{1F468}\u200D\u{1F469}\u200D\u{1F467}").names).not.toContain("[hidden-chars]");
+  });
+
+  it("is absent from plain text", () => {
+    const names = featuresOf("Please refund my order, it arrived broken!").names;
+    expect(names).not.toContain("[mixed-script]");
+    expect(names).not.toContain("[hidden-chars]");
+  });
+});
+
+describe("what folding leaves alone", () => {
+  it.each([
+    ["prices and numbers", "$4.99 for 1000 items, 42.50 EUR, 3 days"],
+    ["codes and ordinals", "order A12345 #B20417 x9y8z7 shipped on the 14th at 10am, 2nd try"],
+    ["product names", "mp3 win10 covid19 h2o b2b 4x4"],
+    ["URLs and e-mail addresses", "see https://fr33.example.com/p?q=1 or www.m0ney.example, mail b0b@example.com"],
+    ["ordinary words", "I am a customer and my account is locked; please help."],
+    ["words with one letter", "a b"],
+  ])("%s: the same features as version 1", (_, text) => {
+    expect(featuresOf(text).slots).toEqual(featuresOf(text, V1).slots);
+  });
+
+  it("shows the original text of a folded feature, and none for a word read as written", () => {
+    const { names, sources } = featuresOf("Get frее MONEY f r e e");
+    expect(sources[names.indexOf("free")]).toBe("frее");
+    expect(sources[names.indexOf("money")]).toBeNull();
+    expect(sources[names.lastIndexOf("free")]).toBe("f r e e");
+    expect(sources[names.indexOf("[mixed-script]")]).toBe("frее");
+  });
+});
+
+const TRICKY = ["a", "e", "o", "f", "r", "E", "0", "3", "1", "2", " ", "  ", ".", "-", "*", "_", "@", "$", "!", "€", "'", "\u200b", "\u202e", "\u00ad", "е", "о", "Е", "р", "ꓑ", "\u0301", "\ud800", "\udc00", "👍", "\u200d", "ﬁ", "Ｆ", "\u03a3", "İ", "http://", "x.com", "a@b.co", "ノ", "१"];
+
+describe("folding", () => {
+  it("never throws on any string, including lone surrogates and combining marks", () => {
+    const featurizer = createFeaturizer(V2);
+    const named = createFeatureBuffer(16, true);
+    const plain = createFeatureBuffer(16);
+    fc.assert(
+      fc.property(fc.oneof(fc.string({ unit: "binary", maxLength: 60 }), fc.array(fc.constantFrom(...TRICKY), { maxLength: 30 }).map((p) => p.join(""))), (text) => {
+        featurizer.featurize(text, named);
+        featurizer.featurize(text, plain);
+        // Names mode (explanations) yields exactly the slots of scoring.
+        expect(Array.from(named.slots.subarray(0, named.count))).toEqual(Array.from(plain.slots.subarray(0, plain.count)));
+        expect(named.sources?.length).toBe(named.count);
+      }),
+      { numRuns: 3000 },
+    );
+  });
+
+  it("is idempotent: normalizing again, or reading a folded word again, changes nothing", () => {
+    const normalizer = new TextNormalizer(2);
+    fc.assert(
+      fc.property(fc.oneof(fc.string({ unit: "grapheme", maxLength: 40 }), fc.array(fc.constantFrom(...TRICKY), { maxLength: 30 }).map((p) => p.join(""))), (text) => {
+        const once = normalizer.normalize(text);
+        expect(normalizer.normalize(once)).toBe(once);
+        for (const word of wordsOf(text)) {
+          if (word.startsWith("[") || /\s/.test(word)) continue;
+          // Up to NFKC: a format character the tokenizer drops ("a\u00AD\u0301") can leave a letter and its mark uncomposed.
+          expect(wordsOf(word)[0], word).toBe(word.normalize("NFKC"));
+        }
+      }),
+      { numRuns: 2000 },
+    );
+  });
+});
