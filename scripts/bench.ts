@@ -2,9 +2,6 @@
 // Markdown under test/bench/results/ (with the machine, Node version and date).
 // `npm run bench -- --quick` skips the 1 GB larger-than-memory build and shortens the rest.
 // These are measurements, not tests: nothing here passes or fails on speed.
-import { readExamples } from "../compiler/read/index.ts";
-import type { LabelledText } from "../compiler/evaluate/evaluate.ts";
-import { murmur3String } from "../runtime/featurizer/murmur3.ts";
 import { loadSpamAssassin, splitSpamAssassin } from "../test/fixtures/spam-assassin.ts";
 import { charGramSpeedMarkdown, runCharGramSpeed, type CharGramSpeed } from "./bench/char-gram-speed.ts";
 import { runComparison } from "./bench/comparison.ts";
@@ -16,18 +13,10 @@ import { runLargeFile, type LargeFileResult } from "./bench/large-file.ts";
 import { runMicro, type MicroResult } from "./bench/micro.ts";
 import { describeMachine, machineInfo, markdownTable, writeResults } from "./bench/results-writer.ts";
 import { runHeads, runThreads, type HeadRow, type ThreadRow } from "./bench/scale.ts";
+import { supportTopicsSplit } from "./bench/support-topics-split.ts";
 
 const quick = process.argv.includes("--quick");
 const log = (line: string) => console.log(line);
-
-async function supportTopicsSplit(): Promise<{ train: LabelledText[]; test: LabelledText[] }> {
-  const train: LabelledText[] = [];
-  const test: LabelledText[] = [];
-  for await (const e of readExamples("demo-data/support-topics.csv", { textFields: ["subject", "body"], labelField: "topic" })) {
-    (murmur3String(String(e.line), 0) % 5 === 0 ? test : train).push(e);
-  }
-  return { train, test };
-}
 
 const f = (value: number, digits = 3) => (Number.isFinite(value) ? value.toFixed(digits) : "n/a");
 

@@ -13,12 +13,11 @@ import { join } from "node:path";
 import { build } from "../../compiler/build/build.ts";
 import { featurizerSettingsOf } from "../../compiler/build/base-header.ts";
 import { defaultBuildSettings, type BuildSettings } from "../../compiler/build/build-settings.ts";
-import type { LabelledText } from "../../compiler/evaluate/evaluate.ts";
 import { textOfTokens } from "../../compiler/evaluate/measure-latency.ts";
-import { readExamples } from "../../compiler/read/index.ts";
 import { buildVocabulary, encodeTexts, mapToRows } from "../../compiler/train/encode.ts";
-import { createFeaturizer, loadModel, murmur3String } from "../../runtime/index.ts";
+import { createFeaturizer, loadModel } from "../../runtime/index.ts";
 import { median } from "./timing.ts";
+import { supportTopicsSplit } from "./support-topics-split.ts";
 
 /** One model's numbers. */
 export interface CharGramModelRow {
@@ -55,15 +54,6 @@ const CONFIGURATIONS: [string, Partial<BuildSettings>][] = [
   ["words only (--char-span 0)", { charSpan: [0, 0] }],
   ["char 2-5 (--char-span 2-5)", { charSpan: [2, 5] }],
 ];
-
-async function supportTopicsSplit(): Promise<{ train: LabelledText[]; test: LabelledText[] }> {
-  const train: LabelledText[] = [];
-  const test: LabelledText[] = [];
-  for await (const e of readExamples("demo-data/support-topics.csv", { textFields: ["subject", "body"], labelField: "topic" })) {
-    (murmur3String(String(e.line), 0) % 5 === 0 ? test : train).push(e);
-  }
-  return { train, test };
-}
 
 type Timings = { short: number; long: number; traffic: number };
 
