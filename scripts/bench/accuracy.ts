@@ -11,7 +11,7 @@
 // Measurements, not tests. The machine is shared, so seconds are noisy.
 import { spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { loadavg, tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { readSuiteCorpus, writeRows, type SuiteCorpus } from "./accuracy-data.ts";
 import { scoreMultiLabel, scoreSingleLabel, type AccuracyScores } from "./accuracy-metrics.ts";
@@ -37,6 +37,8 @@ interface SystemResult extends AccuracyScores {
   searchSeconds: number | null;
   modelBytes: number | null;
   printedValidation: number | null;
+  /** The references' grid (value, validation score, seconds, iterations) and final fit details. */
+  detail?: unknown;
 }
 
 interface CorpusResult {
@@ -48,6 +50,8 @@ interface CorpusResult {
   labels: number;
   systems: SystemResult[];
   notes: string[];
+  /** 1-minute load average when the corpus started and ended (the machine is shared). */
+  load: [number, number];
 }
 
 function score(corpus: SuiteCorpus, predictions: (string | string[])[]): AccuracyScores {
@@ -75,6 +79,7 @@ const started = performance.now();
 console.log(`Accuracy suite, ${new Date().toISOString()}\n${describeMachine(machine)}; scikit-learn ${sklearnVersion ?? "not installed (npm run bench:setup)"}`);
 console.log(`sluice build flags: ${groupFlag.length > 0 ? groupFlag.join(" ") : "none (defaults)"}\n`);
 
+let referenceVersions: string | null = null;
 const work = mkdtempSync(join(tmpdir(), "sluice-accuracy-"));
 const results: CorpusResult[] = [];
 try {
@@ -89,6 +94,7 @@ try {
     if (corpus.train.length < corpus.fullTrainRows) notes.push(`training part subsampled by group: ${corpus.train.length} of ${corpus.fullTrainRows} rows`);
     console.log(`${entry.name}: ${corpus.train.length} train / ${corpus.test.length} test rows, ${entry.labels} labels`);
 
+    const loadAtStart = loadavg()[0];
     const systems: SystemResult[] = [];
     if (!process.argv.includes("--no-sluice")) {
       const sluice = runSluice(trainFile, join(work, `${entry.name}.sluice`), corpus.test, corpus.multiLabel, groupFlag);
@@ -109,20 +115,24 @@ try {
       writeFileSync(optionsFile, JSON.stringify({ multiLabel: corpus.multiLabel, charGrams: CHAR_GRAM_CORPORA.has(entry.name) }));
       const child = spawnSync(SYSTEM_PYTHON, [SKLEARN_SCRIPT, trainFile, testFile, optionsFile], { encoding: "utf8", maxBuffer: 1 << 30, stdio: ["ignore", "pipe", "inherit"] });
       if (child.status !== 0) throw new Error(`sklearn_suite.py on ${entry.name} failed (exit ${child.status})`);
-      const output = JSON.parse(child.stdout) as { models: { name: string; parameter: string; value: number; fitSeconds: number; searchSeconds: number; predictions: (string | string[])[] }[] };
-      for (const model of output.models) {
+      const output = JSON.parse(child.stdout) as { sklearn: string; numpy: string; scipy: string; python: string; models: { name: string; parameter: string; value: number; fitSeconds: number; searchSeconds: number; predictions: (string | string[])[] }[] };
+      referenceVersions = `scikit-learn ${output.sklearn}, numpy ${output.numpy}, scipy ${output.scipy}, Python ${output.python}`;
+      for (const { predictions, ...model } of output.models) {
         systems.push({
           system: `TF-IDF + ${model.name}`,
           setting: `${model.parameter}=${model.value}${CHAR_GRAM_CORPORA.has(entry.name) ? ", words 1-2 + char_wb 1-4" : ", words 1-2"}`,
-          ...score(corpus, model.predictions),
+          ...score(corpus, predictions),
           seconds: model.fitSeconds,
           searchSeconds: model.searchSeconds,
           modelBytes: null,
           printedValidation: null,
+          detail: model,
         });
       }
     }
-    results.push({ corpus: entry.name, shape: entry.shape, trainRows: corpus.train.length, fullTrainRows: corpus.fullTrainRows, testRows: corpus.test.length, labels: entry.labels, systems, notes });
+    const load: [number, number] = [loadAtStart, loadavg()[0]];
+    notes.push(`load average (1 min) ${load[0].toFixed(1)} at the start, ${load[1].toFixed(1)} at the end`);
+    results.push({ corpus: entry.name, shape: entry.shape, trainRows: corpus.train.length, fullTrainRows: corpus.fullTrainRows, testRows: corpus.test.length, labels: entry.labels, systems, notes, load });
   }
 } finally {
   rmSync(work, { recursive: true, force: true });
@@ -141,10 +151,11 @@ const notes = [
   "Test parts are split by group (`npm run corpora`); every row counts, a label the training part lacks is an error for every system.",
   "Multi-label (package-tags): accuracy is subset accuracy (the exact label set); Sluice predicts labels at the thresholds compiled into the model.",
   "Sluice: build seconds are the whole `sluice build` command; printed validation is the compiled model's accuracy on the build's own validation split (micro-F1 for multi-label).",
-  "References: C/alpha chosen on a grouped validation split carved from train, then refit on all of train; fit s is that final fit, search s the grid before it.",
+  "References (scripts/bench/sklearn_suite.py, learners in sklearn_learners.py: LogisticRegression with saga, tol 1e-3; LinearSVC; MultinomialNB): C/alpha chosen from a small grid (extended by ×10 up to twice while the best lies on its edge; LogisticRegression C at most 1000) on a grouped validation split carved from train, then refit on all of train; fit s is that final fit (vectorizer + learner), search s the grid before it (vectorized once, every value on the same matrices; the JSON holds every value's score, seconds and iterations).",
   ...results.flatMap((r) => r.notes.map((n) => `${r.corpus}: ${n}`)),
   `Whole run: ${totalSeconds.toFixed(0)} s. The machine is shared by other work, so seconds are noisy.`,
 ];
 console.log(`\n${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}`);
-const written = writeResults(process.argv.includes("--no-sluice") ? "accuracy-references" : "accuracy", { sklearn: sklearnVersion, flags: groupFlag, maxTrainRows: maxTrain, totalSeconds, results }, `${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n\nCommand: \`npm run bench:accuracy\`; scikit-learn ${sklearnVersion ?? "not installed"}.`);
+const command = `npm run bench:accuracy${process.argv.length > 2 ? ` -- ${process.argv.slice(2).join(" ")}` : ""}`;
+const written = writeResults(process.argv.includes("--no-sluice") ? "accuracy-references" : "accuracy", { sklearn: sklearnVersion, referenceVersions, flags: groupFlag, maxTrainRows: maxTrain, totalSeconds, command, results }, `${table}\n\n${notes.map((n) => `- ${n}`).join("\n")}\n\nCommand: \`${command}\`; ${referenceVersions ?? `scikit-learn ${sklearnVersion ?? "not installed"}`}.`);
 console.log(`\nwritten: ${written.markdown}`);
