@@ -6,6 +6,7 @@
 // of inner-node sigmoids, which cannot be taken apart from the leaves: no answer there unless T = 1.
 
 import type { HeadKind } from "../../runtime/format/model-header.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import type { ScoredSet } from "./evaluate.ts";
 import { expectedCalibrationError } from "../metrics/index.ts";
 
@@ -67,8 +68,7 @@ function topLabelEce(scores: Float32Array | Float64Array, labelCount: number, go
   const confidence = new Float64Array(known.length);
   const correct = new Uint8Array(known.length);
   known.forEach((i, n) => {
-    let best = 0;
-    for (let j = 1; j < labelCount; j++) if (scores[i * labelCount + j] > scores[i * labelCount + best]) best = j;
+    const best = topLabel(scores, i * labelCount, labelCount);
     // Clamp float rounding (a renormalized 1.0000000000000002) into [0, 1] for the binning.
     confidence[n] = Math.min(1, scores[i * labelCount + best]);
     correct[n] = best === gold[i] ? 1 : 0;

@@ -2,6 +2,7 @@
 // (exactly what ships), then computes metrics with compiler/metrics.
 
 import type { Model } from "../../runtime/model/model.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import { computeClassificationMetrics, expectedCalibrationError, logLoss, type LabelScores } from "../metrics/index.ts";
 
 /** A text with its gold labels (the readers' Example satisfies this). */
@@ -93,8 +94,7 @@ export function metricsFromScores(labels: readonly string[], set: ScoredSet, gol
   const confidence = new Float64Array(known.length);
   const correct = new Uint8Array(known.length);
   known.forEach((i, n) => {
-    let best = 0;
-    for (let j = 1; j < k; j++) if (set.scores[i * k + j] > set.scores[i * k + best]) best = j;
+    const best = topLabel(set.scores, i * k, k);
     predicted[n] = best;
     goldKnown[n] = gold[i];
     goldProbability[n] = set.scores[i * k + gold[i]];

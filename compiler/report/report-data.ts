@@ -4,6 +4,7 @@
 
 import type { Model } from "../../runtime/model/model.ts";
 import type { PolicyRule } from "../../runtime/model/policy.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import { evaluateModel, goldIndexes, scoreTexts, type EvaluationReport, type LabelledText } from "../evaluate/evaluate.ts";
 import { expectedCalibrationError, precisionRecallCurve, reliabilityBins, type CurvePoint, type ReliabilityBin } from "../metrics/index.ts";
 
@@ -82,8 +83,7 @@ export function collectReportData(model: Model, examples: readonly ReportExample
   const correct = new Uint8Array(known.length);
   const predicted = new Int32Array(known.length);
   known.forEach((i, n) => {
-    let best = 0;
-    for (let k = 1; k < labelCount; k++) if (scored.scores[i * labelCount + k] > scored.scores[i * labelCount + best]) best = k;
+    const best = topLabel(scored.scores, i * labelCount, labelCount);
     predicted[n] = best;
     // Scores are float32; clamp so rounding can never leave [0, 1].
     confidence[n] = Math.min(1, Math.max(0, scored.scores[i * labelCount + best]));
