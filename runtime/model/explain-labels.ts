@@ -1,7 +1,7 @@
 // Explanations: each logit split exactly into per-feature contributions plus the bias, from
 // the features a text was scored with. The features are grouped by slot (one row of the
-// model, however many times or under however many names it occurs), and only the features
-// shown are named, so a text of one enormous word costs its slots, not a string per n-gram.
+// model, however many times it occurs), and each known slot is named once, so a text of one
+// enormous word costs its distinct known slots, not a string per n-gram.
 
 import type { FeatureBuffer, Featurizer } from "../featurizer/featurizer.ts";
 import type { LabelTree } from "./label-tree.ts";
@@ -46,7 +46,19 @@ export function explainLabels(scored: ScoredFeatures, labelIndexes: number[], fe
     totalWeight += weight;
     bySlot.set(slot, { row, weight, features: [f] });
   }
-  const groups = [...bySlot.values()];
+  // Slots whose features read alike (a token "free" and the character 4-gram "free" inside
+  // "·free·") are shown as one feature, as a reader sees them: one name, the summed contribution.
+  const byName = new Map<string, { rows: { row: number; weight: number }[]; features: number[] }>();
+  for (const group of bySlot.values()) {
+    const name = namesOf(featurizer, buffer, group.features);
+    const named = byName.get(name);
+    if (named === undefined) byName.set(name, { rows: [group], features: [...group.features] });
+    else {
+      named.rows.push(group);
+      for (const f of group.features) named.features.push(f);
+    }
+  }
+  const shown = [...byName.entries()];
   const labels: LabelExplanation[] = [];
   for (const k of labelIndexes) {
     if (k < 0) continue;
@@ -54,18 +66,18 @@ export function explainLabels(scored: ScoredFeatures, labelIndexes: number[], fe
     // row when there is one per label, else the first inner node on the path.
     const outputRow = header.head === "tree" ? (scored.tree as LabelTree).firstNodeOf(k) : k;
     const outputScale = outputScales === null ? 1 : outputScales[outputRow];
-    const contributions = groups.map((group) => {
-      const rowScale = rowScales === null ? 1 : rowScales[group.row];
+    const contributionOf = (row: number, weight: number): number => {
+      const rowScale = rowScales === null ? 1 : rowScales[row];
       let dot = 0;
-      if (outputWeights === null) dot = rows[group.row * width + outputRow];
-      else for (let j = 0; j < dims; j++) dot += outputWeights[outputRow * dims + j] * rows[group.row * dims + j];
-      return { group, contribution: ((group.weight * rowScale * outputScale * dot) / totalWeight) * inverseTemperature };
-    });
-    // Ties go to the feature met first in the text, so only the shown features are named.
-    const features = contributions
-      .sort((a, b) => Math.abs(b.contribution) - Math.abs(a.contribution) || a.group.features[0] - b.group.features[0])
+      if (outputWeights === null) dot = rows[row * width + outputRow];
+      else for (let j = 0; j < dims; j++) dot += outputWeights[outputRow * dims + j] * rows[row * dims + j];
+      return ((weight * rowScale * outputScale * dot) / totalWeight) * inverseTemperature;
+    };
+    const features = shown
+      .map(([feature, named]) => ({ feature, named, contribution: named.rows.reduce((sum, r) => sum + contributionOf(r.row, r.weight), 0) }))
+      .sort((a, b) => Math.abs(b.contribution) - Math.abs(a.contribution) || (a.feature < b.feature ? -1 : 1))
       .slice(0, featureCount)
-      .map(({ group, contribution }) => described(featurizer, buffer, group.features, namesOf(featurizer, buffer, group.features), contribution));
+      .map(({ feature, named, contribution }) => described(featurizer, buffer, named.features, feature, contribution));
     const bias = outputBias[outputRow] * inverseTemperature;
     labels.push({ label: header.labels[k], score: scored.scores[k], logit: scored.logits[outputRow], bias, features });
   }
