@@ -52,6 +52,13 @@ async function compileOrExplain<T>(compile: () => Promise<T>, learningRate: numb
   }
 }
 
+/** The draft written as float32 with every row: its size, and its scores on validation. */
+function measureDraft(draft: Draft, header: ReturnType<typeof baseHeader>, validation: SourceBuild["validation"]) {
+  const bytes = writeModel(contentsOf(draft, header, "float32", null, "hidden"));
+  const draftQuality = validation.length > 0 ? quality(evaluateModel(loadModel(bytes), validation)) : { accuracy: NaN, macroF1: NaN };
+  return { draftByteCount: bytes.length, draftQuality };
+}
+
 /** Train the draft from a source, then compile, calibrate, choose the policy and write. */
 export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint8Array; report: BuildReport }> {
   const { source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
@@ -98,10 +105,9 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
   const validationTexts = validation.map((e) => e.text);
 
-  // The draft as shipped would be: float32, every row.
-  const draftBytes = writeModel(contentsOf(draft, header, "float32", null, "hidden"));
-  const draftModel = loadModel(draftBytes);
-  const draftQuality = validation.length > 0 ? quality(evaluateModel(draftModel, validation)) : { accuracy: NaN, macroF1: NaN };
+  // The draft as shipped would be: float32, every row. Only its size and scores are kept: the
+  // file is as large as the draft itself (72 MB for 750k rows) and must not live on through compiling.
+  const { draftByteCount, draftQuality } = measureDraft(draft, header, validation);
 
   // Compile: prune to the budget, quantize, retrain the output layer on what survives.
   const ranking = rankRows(rowImportance(draft));
@@ -150,7 +156,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     contents.header.metrics = {
       validationExamples: validation.length,
       draft: roundQuality(draftQuality),
-      draftBytes: draftBytes.length,
+      draftBytes: draftByteCount,
       draftRows: draft.slots.length,
       compiled: roundQuality(evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN }),
       ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
@@ -188,7 +194,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     tokensPerSecond: trained.tokensPerSecond,
     finalLoss: trained.finalLoss,
     rows: { seen: draft.slots.length, kept: compiled.contents.slots.length },
-    draft: { ...draftQuality, bytes: draftBytes.length },
+    draft: { ...draftQuality, bytes: draftByteCount },
     compiled: compiledQuality,
     validation: evaluation
       ? { accuracy: evaluation.accuracy, macroF1: evaluation.macroF1, microF1: evaluation.microF1, logLoss: evaluation.logLoss, ece: evaluation.ece }
