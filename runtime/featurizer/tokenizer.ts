@@ -184,6 +184,7 @@ export class Tokenizer {
     let apostrophes = 0;
     let previous = 0; // the last byte hashed
     let beforePrevious = 0;
+    const fold = this.fold; // tested first, so normalization 1 pays nothing for the folding checks
     let i = start;
     while (i < length) {
       const code = text.charCodeAt(i);
@@ -205,7 +206,7 @@ export class Tokenizer {
         pending = 0;
       }
       // Three of one letter in a row ("freeee"): the folding reader bounds the run.
-      if (byte === previous && byte === beforePrevious && byte > 0x39 && this.fold) return -1;
+      if (fold && byte === previous && byte === beforePrevious && byte > 0x39) return -1;
       beforePrevious = previous;
       previous = byte;
       i++;
@@ -213,7 +214,7 @@ export class Tokenizer {
     const bytes = i - start;
     if (bytes === 0) return -1;
     // Letters mixed with digits ("fr33"): the folding reader decides whether they are leetspeak.
-    if (digits > 0 && digits + apostrophes < bytes && this.fold) return -1;
+    if (fold && digits > 0 && digits + apostrophes < bytes) return -1;
     let end = i;
     let markCode = 0;
     let markRepeats = 0;
