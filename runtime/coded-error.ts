@@ -9,13 +9,11 @@ export interface CodedError<Code extends string> extends Error {
 }
 
 /**
- * What `codedErrorClass` returns: a constructor to extend, and its code map. Spelled out so
+ * What `codedErrorClass` returns: a constructor to extend. Spelled out so
  * the emitted types name nothing of Node's Error (a browser consumer has no @types/node).
  */
 export interface CodedErrorClass<Codes extends Readonly<Record<string, unknown>>> {
   new (code: keyof Codes & string, message: string): CodedError<keyof Codes & string>;
-  /** The code map this kind of error draws its codes from. */
-  readonly codes: Codes;
 }
 
 /**
@@ -25,10 +23,11 @@ export interface CodedErrorClass<Codes extends Readonly<Record<string, unknown>>
  * class InputError extends codedErrorClass("InputError", CODES) {}
  * new InputError("not-text", "expected a string, got 42").code // "not-text"
  */
-export function codedErrorClass<Codes extends Readonly<Record<string, unknown>>>(name: string, codes: Codes): CodedErrorClass<Codes> {
+export function codedErrorClass<Codes extends Readonly<Record<string, unknown>>>(name: string, _codes: Codes): CodedErrorClass<Codes> {
+  // `_codes` only types the codes (a runtime copy would cost bundle bytes: the runtime ships under a ceiling).
   return class extends Error {
-    static readonly codes: Codes = codes;
-    readonly code: keyof Codes & string;
+    // Assigned in the constructor; `declare` emits no separate field (bundle bytes).
+    declare readonly code: keyof Codes & string;
 
     constructor(code: keyof Codes & string, message: string) {
       super(message);

@@ -38,24 +38,6 @@ export function endsInRepeatedDigit(chars: Uint16Array, start: number, end: numb
   return end - start >= 2 && last >= 0x30 && last <= 0x39 && chars[end - 2] === last;
 }
 
-/**
- * Whether the digits of a word just read stand for letters, given its counts (every digit
- * already has a letter reading): more letters than digits, or at most two of each; at most one
- * leading digit, and then at least three letters; and a digit followed by a letter, or a
- * repeated digit at the end ("m0ney", "0ffer", "fr33"; not "mp3", "win10", "14th", "10am").
- */
-export function digitsReadAsLetters(letters: number, digits: number, leadingDigits: number, digitThenLetter: boolean, chars: Uint16Array, start: number, end: number): boolean {
-  return (digits < letters || (digits === letters && digits < 3)) && (leadingDigits === 0 || (leadingDigits === 1 && letters >= 3)) && (digitThenLetter || endsInRepeatedDigit(chars, start, end));
-}
-
-/** Replaces each digit of `chars[start..end)` by the letter it stands for, in place. */
-export function replaceLeetDigits(chars: Uint16Array, start: number, end: number): void {
-  for (let c = start; c < end; c++) {
-    const letter = leetLetterOfDigit(chars[c]);
-    if (letter !== 0) chars[c] = letter;
-  }
-}
-
 function isPadding(code: number): boolean {
   // * _ ~ ^ ` | \ + = # · •
   return code === 0x2a || code === 0x5f || code === 0x7e || code === 0x5e || code === 0x60 || code === 0x7c || code === 0x5c ||

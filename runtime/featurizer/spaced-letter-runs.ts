@@ -40,7 +40,7 @@ export class SpacedLetterRun {
     const separator = at > 0 ? text.charCodeAt(at - 1) : -1;
     const continues = this.count > 0 && at === this.end + 1 && (this.count === 1 || separator === this.separator);
     if (!continues) {
-      if (this.count > 0) this.join(withNames);
+      this.join(withNames); // closes the open run, if any
       this.first = this.tokens.tokenTotal;
     } else if (this.count === 1) {
       this.separator = separator;
@@ -73,6 +73,6 @@ export class SpacedLetterRun {
 
   /** The tokens from `tokenTotal` on were taken back (an e-mail address): so are their letters. */
   takeBack(tokenTotal: number): void {
-    if (this.count > 0) this.count = Math.max(0, Math.min(this.count, tokenTotal - this.first));
+    this.count = Math.max(0, Math.min(this.count, tokenTotal - this.first)); // stays 0 when none is open
   }
 }

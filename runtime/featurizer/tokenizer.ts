@@ -26,7 +26,7 @@ import {
 import { chunkEnd, isEmailAddress, isOpeningBracket, lowerAscii, startsWithAscii, trimTrailingPunctuation, urlHostOffset } from "./chunk-shapes.ts";
 import type { FeatureSeeds } from "./feature-seeds.ts";
 import { Murmur3Stream, finish, mixBlock, mixTail, murmur3String } from "./murmur3.ts";
-import { capRuns, digitsReadAsLetters, hashCodes, leetLetterOfDigit, paddingEnd, replaceLeetDigits, symbolLetter } from "./evasion-rules.ts";
+import { capRuns, endsInRepeatedDigit, hashCodes, leetLetterOfDigit, paddingEnd, symbolLetter } from "./evasion-rules.ts";
 import { SpacedLetterRun } from "./spaced-letter-runs.ts";
 import { ASCII_WORD_BYTES, CODE, EMAIL, MARK, NUMBER, NUMBER_NAMES, URL, WORD } from "./token-kinds.ts";
 
@@ -436,7 +436,8 @@ export class Tokenizer {
     }
     const keep = this.keepWordChars;
     // Digits stand for letters ("m0ney", "h4x0r", "fr33") only under evasion-rules.ts's conditions.
-    const leet = fold && digits > 0 && nonLeetDigits === 0 && digitsReadAsLetters(letters, digits, leadingDigits, digitThenLetter, chars, charStart, total);
+    const leet = fold && digits > 0 && nonLeetDigits === 0 && (digits < letters || (digits === letters && digits < 3)) &&
+      (leadingDigits === 0 || (leadingDigits === 1 && letters >= 3)) && (digitThenLetter || endsInRepeatedDigit(chars, charStart, total));
     if (letters === 0) {
       const bucket = Math.min(digits, 5) - 1;
       this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket], start, i);
@@ -445,7 +446,12 @@ export class Tokenizer {
     } else {
       let hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
       if (leet || (longRun && fold)) {
-        if (leet) replaceLeetDigits(chars, charStart, total);
+        if (leet) {
+          for (let c = charStart; c < total; c++) {
+            const letter = leetLetterOfDigit(chars[c]);
+            if (letter !== 0) chars[c] = letter;
+          }
+        }
         const capped = capRuns(chars, charStart, total);
         const doubled = capped.doubled;
         if (doubled !== null) this.addExtra(hashCodes(doubled, 0, doubled.length, this.wordSeed), this.withNames ? charCodesToString(doubled, 0, doubled.length) : "", start, i);
