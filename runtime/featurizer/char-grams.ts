@@ -4,29 +4,17 @@
 // for every word of a text, or for one word when a model's word cache
 // (runtime/model/word-feature-cache.ts) asks, so both see the same slots.
 
-import { charCodesToString } from "./char-codes-to-string.ts";
-import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
+import { CHAR_GRAM_FEATURE, pushOrigin, pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
 import { finish, mixBlock, mixTail } from "./murmur3.ts";
 import { WORD_EDGE } from "./token-kinds.ts";
 
-// Names of recent n-grams by the low bits of their hash. A long word repeats its n-grams
-// ("aaaa…" has five distinct ones in a million characters), and two million fresh strings
-// cost several times the hashing in allocation and garbage collection; a hit is checked
-// against the text itself, so a name is always the n-gram's own characters.
-const NAME_CACHE_SIZE = 4096;
-const nameCache: string[] = new Array<string>(NAME_CACHE_SIZE).fill("");
-
 /**
- * Appends the character n-grams of the word `chars[first .. first + wordLength)`; with names,
- * `source` (the word's original text when folding changed it, else null) is each one's source.
+ * Appends the character n-grams of the word `chars[first .. first + wordLength)`, which is
+ * token `token` of the text (recorded as their origin when `out` keeps origins).
  */
-export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer, source: string | null): void {
-  const names = out.names;
-  const sources = out.sources;
+export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer, token: number): void {
+  const withOrigins = out.origins !== null;
   const framedLength = wordLength + 2; // the word with an edge byte on each side
-  // With names, the framed word as people read it ("·" marks the start and the end), made
-  // once: each n-gram's name is a slice of it.
-  const framedName = names ? `·${charCodesToString(chars, first, first + wordLength)}·` : "";
   for (let start = 0; start < framedLength; start++) {
     // MurmurHash3 of the UTF-8 bytes of framed[start .. start + length), for each length,
     // in one pass: the running state is read out (without disturbing it) at each length.
@@ -57,14 +45,17 @@ export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength:
       }
       if (length < charMin) continue;
       if (length === 1 && isEdge) continue; // an edge alone says nothing
-      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
-      pushSlot(out, hash & mask);
-      if (names) {
-        const cached = nameCache[hash & (NAME_CACHE_SIZE - 1)];
-        if (cached.length === length && framedName.startsWith(cached, start)) names.push(cached);
-        else names.push((nameCache[hash & (NAME_CACHE_SIZE - 1)] = framedName.slice(start, start + length)));
-      }
-      if (sources) sources.push(source);
+      pushSlot(out, finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes) & mask);
+      if (withOrigins) pushOrigin(out, CHAR_GRAM_FEATURE, length, token, start);
     }
   }
+}
+
+/** A character n-gram as people read it: "·" marks the start or end of the word. */
+export function charGramName(chars: Uint16Array, first: number, wordLength: number, start: number, length: number): string {
+  let name = "";
+  for (let position = start; position < start + length; position++) {
+    name += position === 0 || position === wordLength + 1 ? "·" : String.fromCharCode(chars[first + position - 1]);
+  }
+  return name;
 }

@@ -100,6 +100,11 @@ export function reviewPage(model: Model, nonce: string): string {
     progress.textContent = done + " decided, " + counts.pending + " left";
   }
 
+  // A folded feature shows what was written: free (from "frее") — why a lookalike counted.
+  function driverText(f) {
+    return f.foldedFrom && f.foldedFrom.length > 0 ? f.feature + " (from " + f.foldedFrom.map((s) => JSON.stringify(s)).join(", ") + ")" : f.feature;
+  }
+
   function show(item) {
     current = item;
     section.hidden = item === null;
@@ -112,7 +117,7 @@ export function reviewPage(model: Model, nonce: string): string {
       const row = document.createElement("tr");
       const label = document.createElement("td"); label.textContent = entry.label;
       const score = document.createElement("td"); score.className = "number"; score.textContent = entry.score === null ? "n/a" : entry.score.toFixed(3);
-      const features = document.createElement("td"); features.textContent = (drivers.get(entry.label) || []).map((f) => f.feature).join(", ") || "—";
+      const features = document.createElement("td"); features.textContent = (drivers.get(entry.label) || []).map(driverText).join(", ") || "—";
       row.append(label, score, features);
       scoreRows.append(row);
     }
