@@ -7,6 +7,7 @@
 
 import type { Model } from "../../index.ts";
 import { escapeHtml } from "../escape-html.ts";
+import { pageHead } from "../page-head.ts";
 
 /**
  * The page's HTML for one response.
@@ -15,18 +16,7 @@ import { escapeHtml } from "../escape-html.ts";
 export function reviewPage(model: Model, nonce: string): string {
   const n = escapeHtml(nonce);
   const labels = JSON.stringify(model.labels).replace(/</g, "\\u003c");
-  return `<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<title>Sluice review</title>
-<style nonce="${n}">
-  :root { color-scheme: light; }
-  body { font: 16px/1.5 system-ui, sans-serif; color: #1a1a1a; background: #ffffff; margin: 0 auto; max-width: 46rem; padding: 1.5rem; }
-  h1 { font-size: 1.5rem; margin: 0 0 .25rem; }
-  .note, .hint { color: #4a4a4a; font-size: .9rem; }
-  label { display: block; font-weight: 600; margin: 1rem 0 .25rem; }
+  return `${pageHead("Sluice review", nonce)}  .note, .hint { color: #4a4a4a; font-size: .9rem; }
   input { box-sizing: border-box; width: 100%; font: inherit; border: 2px solid #5c5c5c; border-radius: 4px; padding: .5rem; }
   button { margin: .5rem .5rem 0 0; font: inherit; font-weight: 600; color: #ffffff; background: #0b4f8a; border: 2px solid #0b4f8a; border-radius: 4px; padding: .4rem 1rem; cursor: pointer; }
   button.skip { color: #1a1a1a; background: #ffffff; border-color: #5c5c5c; }
