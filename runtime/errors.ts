@@ -1,5 +1,7 @@
-// Typed errors: one code map per error kind and one factory, so callers (the CLI, the
-// Worker) switch on `code` and map it to an exit status or an HTTP status.
+// The runtime's typed errors: one code map per error kind, each class made by the one
+// factory (coded-error.ts), so callers switch on `code` and map it to an exit or HTTP status.
+
+import { codedErrorClass } from "./coded-error.ts";
 
 /** Why a model file was refused. */
 export const MODEL_FORMAT_ERROR_CODES = {
@@ -14,15 +16,12 @@ export const MODEL_FORMAT_ERROR_CODES = {
 export type ModelFormatErrorCode = keyof typeof MODEL_FORMAT_ERROR_CODES;
 
 /** A model file that cannot be used. Nothing of it was loaded. */
-export class ModelFormatError extends Error {
-  readonly code: ModelFormatErrorCode;
+export class ModelFormatError extends codedErrorClass("ModelFormatError", MODEL_FORMAT_ERROR_CODES) {
   /** Byte offset in the file where the problem was found, when there is one. */
   readonly offset: number | null;
 
   constructor(code: ModelFormatErrorCode, message: string, offset: number | null = null) {
-    super(offset === null ? message : `${message} (at byte ${offset})`);
-    this.name = "ModelFormatError";
-    this.code = code;
+    super(code, offset === null ? message : `${message} (at byte ${offset})`);
     this.offset = offset;
   }
 }
@@ -36,12 +35,4 @@ export const INPUT_ERROR_CODES = {
 export type InputErrorCode = keyof typeof INPUT_ERROR_CODES;
 
 /** A call with an argument the runtime cannot use. */
-export class InputError extends Error {
-  readonly code: InputErrorCode;
-
-  constructor(code: InputErrorCode, message: string) {
-    super(message);
-    this.name = "InputError";
-    this.code = code;
-  }
-}
+export class InputError extends codedErrorClass("InputError", INPUT_ERROR_CODES) {}

@@ -15,6 +15,8 @@ export type {
 } from "./model/model.ts";
 export { ModelFormatError, InputError, MODEL_FORMAT_ERROR_CODES, INPUT_ERROR_CODES } from "./errors.ts";
 export type { ModelFormatErrorCode, InputErrorCode } from "./errors.ts";
+export { codedErrorClass } from "./coded-error.ts";
+export type { CodedError, CodedErrorClass } from "./coded-error.ts";
 export { decideFromScores, failClosed, DECISION_FAULT_CODES } from "./model/policy.ts";
 export type { Action, Decision, DecisionFault, DecisionFaultCode, Policy, PolicyRule } from "./model/policy.ts";
 export { createFeaturizer, createFeatureBuffer, Featurizer } from "./featurizer/featurizer.ts";

@@ -8,7 +8,7 @@ import { runComparison } from "./bench/comparison.ts";
 import { comparisonTable, comparisonRatios, comparisonNotes } from "./bench/comparison-print.ts";
 import type { ComparisonRow } from "./bench/comparison-rows.ts";
 import { runCompression, type CompressionRow } from "./bench/compression.ts";
-import { runDefaultBuildMemory, type DefaultBuildMemoryResult } from "./bench/default-build-memory.ts";
+import { describeBuildPathCost, IN_MEMORY_FLAGS, runDefaultBuildMemory, type DefaultBuildMemoryResult } from "./bench/default-build-memory.ts";
 import { runLargeFile, type LargeFileResult } from "./bench/large-file.ts";
 import { runMicro, type MicroResult } from "./bench/micro.ts";
 import { describeMachine, machineInfo, markdownTable, writeResults } from "./bench/results-writer.ts";
@@ -79,11 +79,12 @@ if (!quick) {
   log("\n## Peak memory of a default build: 100 MB CSV of short texts, 12 labels");
   // The default (which chooses the path from projected memory) against a forced in-memory
   // build, one after the other in child processes; peak RSS from getrusage.
-  for (const flags of [[], ["--max-memory", "64g"]]) {
+  for (const flags of [[], IN_MEMORY_FLAGS]) {
     const run = await runDefaultBuildMemory(100 * 1024 * 1024, flags);
     memory.push(run);
-    log(`${flags.length === 0 ? "default" : flags.join(" ")}: ${run.lines} lines, ${run.onDisk ? "on disk" : "in memory"}, ${f(run.seconds, 0)} s, peak RSS ${f(run.peakRssMB, 0)} MB (ceiling 2 × input + 300 = ${f(run.ceilingMB, 0)} MB), accuracy ${f(run.accuracy, 4)}`);
+    log(`${flags.length === 0 ? "default" : flags.join(" ")}: ${run.lines} lines, ${run.onDisk ? "on disk" : "in memory"}, ${f(run.seconds, 0)} s wall, ${f(run.cpuSeconds, 0)} s CPU, peak RSS ${f(run.peakRssMB, 0)} MB (ceiling 2 × input + 300 = ${f(run.ceilingMB, 0)} MB), accuracy ${f(run.accuracy, 4)}`);
   }
+  log(describeBuildPathCost(memory[0], memory[1]));
 }
 
 log("\n## Side by side");
@@ -111,7 +112,8 @@ const markdown = [
   "",
   threadTable,
   "",
-  ...memory.map((run) => `Default build, 100 MB CSV (${run.lines} short texts, 12 labels)${run.flags.length > 0 ? ` with ${run.flags.join(" ")}` : ""}: ${run.onDisk ? "on disk" : "in memory"}, ${f(run.seconds, 0)} s, peak RSS ${f(run.peakRssMB, 0)} MB (ceiling ${f(run.ceilingMB, 0)} MB).`),
+  ...memory.map((run) => `Default build, 100 MB CSV (${run.lines} short texts, 12 labels)${run.flags.length > 0 ? ` with ${run.flags.join(" ")}` : ""}: ${run.onDisk ? "on disk" : "in memory"}, ${f(run.seconds, 0)} s wall, ${f(run.cpuSeconds, 0)} s CPU, peak RSS ${f(run.peakRssMB, 0)} MB (ceiling ${f(run.ceilingMB, 0)} MB).`),
+  ...(memory.length === 2 ? [`Default build: ${describeBuildPathCost(memory[0], memory[1])}.`] : []),
   "",
   large ? `Larger than memory: ${(large.fileBytes / 1024 ** 3).toFixed(2)} GiB JSONL built on disk in ${f(large.seconds, 0)} s, peak RSS ${f(large.peakRssMB, 0)} MB.` : "Larger than memory: skipped (--quick).",
   "",

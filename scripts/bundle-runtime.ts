@@ -8,8 +8,10 @@ import { build } from "esbuild";
  * Ceilings for the minified runtime bundle (ours + msgpackr's decoder). Raised from 64 KiB / 20 KiB
  * for normalization 2 (evasion folding): the UTS #39 lookalike table and the folding rules took the
  * bundle from 55,238 B / 20,392 B gzip to 65,151 B / 24,237 B gzip (the table alone is 1,078 B minified).
+ * Then to 25 KiB gzip for feature origins (decisions name their drivers from the features they were
+ * scored with): 67,458 B / 25,058 B gzip.
  */
-export const RUNTIME_BUNDLE_CEILING = { raw: 72 * 1024, gzip: 24 * 1024 };
+export const RUNTIME_BUNDLE_CEILING = { raw: 72 * 1024, gzip: 25 * 1024 };
 
 /** Bundles runtime/index.ts and returns its sizes. */
 export async function bundleRuntime(): Promise<{ raw: number; gzip: number; ours: number; code: Uint8Array }> {

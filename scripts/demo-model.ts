@@ -31,6 +31,20 @@ const ROUTING_DATA_PATH = join(ROOT, "demo-data", "support-topics.csv");
 const DEMO_BUILD_EPOCH = "1767225600";
 
 /**
+ * The settings both demo recipes pin, whatever the build defaults, for the reason given
+ * beside DEMO_MODEL_ARGS: the Worker's review band, EMAIL_MIN_SCORE and their tests were
+ * measured with them.
+ */
+const PINNED_RECIPE_SETTINGS = [
+  "--weighting", "mean",
+  "--epochs", "10",
+  "--no-adaptive-rates",
+  "--search-time", "0",
+  "--near-duplicates", "apart",
+  "--no-fold-evasion",
+];
+
+/**
  * The CLI arguments of the moderation model: spam is blocked only where validation
  * precision reaches 99%; below that, from the score that catches 90% of spam, it goes to
  * human review. Abusive messages are never blocked automatically: from the score that
@@ -50,12 +64,7 @@ export const DEMO_MODEL_ARGS = [
   "--text-field", "message",
   "--label-field", "label",
   "--char-span", "3-4",
-  "--weighting", "mean",
-  "--epochs", "10",
-  "--no-adaptive-rates",
-  "--search-time", "0",
-  "--near-duplicates", "apart",
-  "--no-fold-evasion",
+  ...PINNED_RECIPE_SETTINGS,
   "--target-precision", "spam=0.99",
   "--target-recall", "spam=0.9,abusive=0.9",
   "--review-below", "0.6",
@@ -76,12 +85,7 @@ export const DEMO_ROUTING_MODEL_ARGS = [
   "--text-field", "subject,body",
   "--label-field", "topic",
   "--max-bytes", "128k",
-  "--weighting", "mean",
-  "--epochs", "10",
-  "--no-adaptive-rates",
-  "--search-time", "0",
-  "--near-duplicates", "apart",
-  "--no-fold-evasion",
+  ...PINNED_RECIPE_SETTINGS,
   "--threads", "1",
   "--quiet",
   "--force",

@@ -5,7 +5,7 @@
 // mutation kind, and every violation; exits 1 when there is one. The suite runs 5,000 per model.
 
 import { readFileSync } from "node:fs";
-import { DEMO_ROUTING_MODEL_PATH, ensureDemoModel } from "./demo-model.ts";
+import { DEMO_CANDIDATE_MODEL_PATH, DEMO_ROUTING_MODEL_PATH, ensureDemoModel } from "./demo-model.ts";
 import { checkMutatedModel, mutationsOf, type MutationKind } from "../test/runtime/format/model-mutations.ts";
 
 const argument = (name: string, fallback: number): number => {
@@ -18,8 +18,11 @@ const seed = argument("--seed", 2026);
 const files: [string, string][] = [
   ["demo contact-form (moderation)", ensureDemoModel()],
   ["demo support-topics (routing)", DEMO_ROUTING_MODEL_PATH],
+  ["demo candidate (shadow)", DEMO_CANDIDATE_MODEL_PATH],
   ["golden tiny.sluice (v1)", new URL("../test/fixtures/golden/tiny.sluice", import.meta.url).pathname],
   ["golden tiny-v2.sluice (v2)", new URL("../test/fixtures/golden/tiny-v2.sluice", import.meta.url).pathname],
+  ["golden tiny-v3.sluice (v3)", new URL("../test/fixtures/golden/tiny-v3.sluice", import.meta.url).pathname],
+  ["golden tiny-v3-n2.sluice (v3, normalization 2)", new URL("../test/fixtures/golden/tiny-v3-n2.sluice", import.meta.url).pathname],
 ];
 
 let violations = 0;

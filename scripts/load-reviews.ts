@@ -7,7 +7,7 @@
 // and how many the Worker counted as lost. Stops at the request count or the time limit.
 // Run: npm run load:reviews [-- --requests N --concurrency N --rounds N --seconds N]
 
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { Miniflare } from "miniflare";
@@ -17,6 +17,7 @@ import { buildWorkerBundle } from "./build-worker.ts";
 import { integerFlag, loopbackWorkerOptions } from "./load-options.ts";
 import { nearestRank } from "./bench/single-call-timing.ts";
 import { DEMO_MODEL_PATH } from "./demo-model.ts";
+import { migrationStatements } from "./review-migrations.ts";
 
 const REQUESTS = integerFlag("--requests", 20_000, 200_000);
 const CONCURRENCY = integerFlag("--concurrency", 64, 512);
@@ -28,17 +29,6 @@ const texts = readFileSync(new URL("../demo-data/contact-form.jsonl", import.met
   .trim()
   .split("\n")
   .map((line) => (JSON.parse(line) as { message: string }).message);
-
-/** The statements of the migration files, in order (comments stripped). */
-function migrationStatements(): string[] {
-  const directory = new URL("../migrations/", import.meta.url);
-  return readdirSync(directory)
-    .filter((name) => name.endsWith(".sql"))
-    .sort()
-    .flatMap((name) => readFileSync(new URL(name, directory), "utf8").replace(/--[^\n]*/g, "").split(";"))
-    .map((sql) => sql.trim())
-    .filter((sql) => sql !== "");
-}
 
 // How many of the requests the live model sends to review (the Worker's default floor 0.6).
 const live = loadModel(readFileSync(DEMO_MODEL_PATH));

@@ -3,6 +3,7 @@
 
 import { validationTraffic } from "./validation-traffic.ts";
 import { loadModel } from "../../runtime/format/load-model.ts";
+import type { Model } from "../../runtime/model/model.ts";
 import type { Policy } from "../../runtime/model/policy.ts";
 import { choosePolicy, type PolicyReport } from "../compile/choose-policy.ts";
 import { fitCalibration } from "../compile/calibrate.ts";
@@ -10,7 +11,7 @@ import { chooseSigmoidThresholds } from "../compile/sigmoid-thresholds.ts";
 import { rankRows, rowImportance } from "../compile/prune.ts";
 import { shouldFoldOutput } from "../compile/fold-output.ts";
 import { sectionSizes, writeModel } from "../compile/write-model.ts";
-import { evaluateModel, scoreTexts } from "../evaluate/evaluate.ts";
+import { evaluateModel, scoreTexts, type ScoredSet } from "../evaluate/evaluate.ts";
 import { measureLatency } from "../evaluate/measure-latency.ts";
 import { createDraft } from "../train/draft.ts";
 import { inverseDocumentFrequency } from "../train/encode.ts";
@@ -50,6 +51,13 @@ async function compileOrExplain<T>(compile: () => Promise<T>, learningRate: numb
     }
     throw error;
   }
+}
+
+/** The draft written as float32 with every row: its size, and its scores on validation. */
+function measureDraft(draft: Draft, header: ReturnType<typeof baseHeader>, validation: SourceBuild["validation"]) {
+  const bytes = writeModel(contentsOf(draft, header, "float32", null, "hidden"));
+  const draftQuality = validation.length > 0 ? quality(evaluateModel(loadModel(bytes), validation)) : { accuracy: NaN, macroF1: NaN };
+  return { draftByteCount: bytes.length, draftQuality };
 }
 
 /** Train the draft from a source, then compile, calibrate, choose the policy and write. */
@@ -98,10 +106,9 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   if (job.trainFingerprint) header.provenance.trainFingerprint = job.trainFingerprint;
   const validationTexts = validation.map((e) => e.text);
 
-  // The draft as shipped would be: float32, every row.
-  const draftBytes = writeModel(contentsOf(draft, header, "float32", null, "hidden"));
-  const draftModel = loadModel(draftBytes);
-  const draftQuality = validation.length > 0 ? quality(evaluateModel(draftModel, validation)) : { accuracy: NaN, macroF1: NaN };
+  // The draft as shipped would be: float32, every row. Only its size and scores are kept: the
+  // file is as large as the draft itself (72 MB for 750k rows) and must not live on through compiling.
+  const { draftByteCount, draftQuality } = measureDraft(draft, header, validation);
 
   // Compile: prune to the budget, quantize, retrain the output layer on what survives.
   const ranking = rankRows(rowImportance(draft));
@@ -119,18 +126,29 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   input.onStage?.("calibrate");
 
   // Calibrate and choose the policy on the validation split, with the compiled model.
+  // Each model that scores differently is written and loaded once: the compiled one, and the
+  // calibrated one when calibration changes the temperature. The policy, thresholds and
+  // metrics are header fields no score reads, so the last of these models (`measured`) and
+  // its validation scores serve the measurements below too, and the only later write is the
+  // bytes that ship; verifyRoundTrip reloads those and checks they score like `measured`.
   let calibration: BuildReport["calibration"] = null;
   let policy: Policy | null = null;
   let policyReport: PolicyReport | null = null;
   let thresholds: number[] | null = null;
+  let measured: Model | null = null;
+  let measuredScores: ScoredSet | undefined;
   if (validation.length > 0) {
     const uncalibrated = loadModel(writeModel(compiled.contents));
     const scored = scoreTexts(uncalibrated, validationTexts);
+    measured = uncalibrated;
+    let calibratedScores = scored;
     if (settings.calibrate && head !== "tree") {
       calibration = fitCalibration(head, scored, validation, labelIndex);
       compiled.contents.header.calibration = { temperature: calibration.temperature };
+      measured = loadModel(writeModel(compiled.contents));
+      calibratedScores = scoreTexts(measured, validationTexts);
     }
-    const calibratedScores = settings.calibrate && head !== "tree" ? scoreTexts(loadModel(writeModel(compiled.contents)), validationTexts) : scored;
+    measuredScores = calibratedScores;
     if (head === "sigmoid") thresholds = chooseSigmoidThresholds(calibratedScores, validation, labels);
     const chosen = choosePolicy(calibratedScores, validation, labels, settings.targetPrecision, settings.targetRecall, warnings, settings.actions, settings.reviewBelow);
     policy = chosen.policy;
@@ -143,14 +161,13 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
 
   // Measure what ships, record it in the header, write the final bytes.
   const latencyPool = validationTexts.length > 0 ? validationTexts : (input.examples ?? []).map((e) => e.text);
-  const measure = (contents: typeof compiled.contents) => {
-    const model = loadModel(writeModel(contents));
-    const evaluation = validation.length > 0 ? evaluateModel(model, validation) : null;
+  const measure = (model: Model, contents: typeof compiled.contents, scored?: ScoredSet) => {
+    const evaluation = validation.length > 0 ? evaluateModel(model, validation, scored) : null;
     const latency = latencyPool.length > 0 ? measureLatency(model, latencyPool) : null;
     contents.header.metrics = {
       validationExamples: validation.length,
       draft: roundQuality(draftQuality),
-      draftBytes: draftBytes.length,
+      draftBytes: draftByteCount,
       draftRows: draft.slots.length,
       compiled: roundQuality(evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN }),
       ...(evaluation ? { logLoss: round(evaluation.logLoss), ece: round(evaluation.ece), microF1: round(evaluation.microF1) } : {}),
@@ -159,9 +176,11 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
       // What the Worker's traffic counts will be compared with (population stability in the report).
       ...(validation.length > 0 ? { traffic: validationTraffic(model, validationTexts) } : {}),
     };
-    return { model, evaluation, latency, bytes: writeModel(contents) };
+    return { evaluation, latency, bytes: writeModel(contents) };
   };
-  let { model: shipped, evaluation, latency, bytes } = measure(compiled.contents);
+  // Scores exactly as the shipped bytes will (only their header is still to change).
+  let shipped = measured ?? loadModel(writeModel(compiled.contents));
+  let { evaluation, latency, bytes } = measure(shipped, compiled.contents, measuredScores);
   // The metrics made the header a little longer than the budget reserved: drop rows until it
   // fits, measuring each smaller model again, so the metrics, the report and the round-trip
   // check below all describe the bytes that are written (the calibration, thresholds and
@@ -171,7 +190,8 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     const smaller = await compile(keep);
     smaller.contents.header = { ...compiled.contents.header };
     compiled = smaller;
-    ({ model: shipped, evaluation, latency, bytes } = measure(compiled.contents));
+    shipped = loadModel(writeModel(compiled.contents));
+    ({ evaluation, latency, bytes } = measure(shipped, compiled.contents));
   }
   const compiledQuality = evaluation ? quality(evaluation) : { accuracy: NaN, macroF1: NaN };
   verifyRoundTrip(bytes, shipped, validationTexts.slice(0, 50), head);
@@ -188,7 +208,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     tokensPerSecond: trained.tokensPerSecond,
     finalLoss: trained.finalLoss,
     rows: { seen: draft.slots.length, kept: compiled.contents.slots.length },
-    draft: { ...draftQuality, bytes: draftBytes.length },
+    draft: { ...draftQuality, bytes: draftByteCount },
     compiled: compiledQuality,
     validation: evaluation
       ? { accuracy: evaluation.accuracy, macroF1: evaluation.macroF1, microF1: evaluation.microF1, logLoss: evaluation.logLoss, ece: evaluation.ece }

@@ -17,7 +17,7 @@ import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { LabelledText } from "../evaluate/evaluate.ts";
 import { checkWeights, TrainingDivergedError } from "../train/divergence.ts";
 import { createDraft } from "../train/draft.ts";
-import { buildVocabulary, encodeTexts, inverseDocumentFrequency, mapToRows, type EncodedExamples } from "../train/encode.ts";
+import { buildVocabulary, encodeTexts, inverseDocumentFrequency, keptSlots, mapToRows, surveyTexts, type EncodedExamples, type TextSurvey, type Vocabulary } from "../train/encode.ts";
 import { huffmanTree, treePaths } from "../train/huffman.ts";
 import { createRandom } from "../train/random.ts";
 import { scoreDraft, type DraftScores } from "../train/score-draft.ts";
@@ -139,6 +139,36 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     }
     return found;
   };
+  // Features of the whole training set under settings not yet encoded, counted without keeping
+  // them: a character n-gram encoding of all the data is some 14 times the words-only one
+  // (4.7 GB of a 100 MB CSV), and the probe trains on a subsample of it.
+  const surveys = new Map<string, TextSurvey>();
+  const survey = (settings: BuildSettings) => {
+    const key = JSON.stringify(featurizerSettingsOf(settings));
+    let found = surveys.get(key);
+    if (!found) {
+      found = surveyTexts(createFeaturizer(featurizerSettingsOf(settings)), job.train.map((e) => e.text), settings.hashBits);
+      surveys.set(key, found);
+    }
+    return found;
+  };
+  const featureTotal = (settings: BuildSettings) => encodings.get(JSON.stringify(featurizerSettingsOf(settings)))?.train.features.length ?? survey(settings).featureTotal;
+  // A probe's data: the subsample encoded alone (example i is subset[i], so training visits the
+  // same examples in the same order), with the vocabulary of all the training data, as a
+  // probe on the full encoding would have.
+  const probeData = (settings: BuildSettings, subset: Int32Array) => {
+    const key = JSON.stringify(featurizerSettingsOf(settings));
+    const full = encodings.get(key);
+    if (full) return { encoded: full, subset };
+    const featurizer = createFeaturizer(featurizerSettingsOf(settings));
+    const all = survey(settings);
+    const train = encodeTexts(featurizer, Array.from(subset, (i) => job.train[i].text), Array.from(subset, (i) => trainLabels[i]));
+    const validation = encodeTexts(featurizer, job.validation.map((e) => e.text), validationLabels);
+    const vocabulary = keptSlots(all.frequency, settings.minDocs, all.count);
+    const labelCounts = new Float64Array(labels.length);
+    for (const ids of trainLabels) for (const id of ids) labelCounts[id]++;
+    return { encoded: { train, validation, vocabulary, labelCounts }, subset: Int32Array.from({ length: subset.length }, (_, i) => i) };
+  };
   let base: BuildSettings = { ...job.settings };
   if (!explicit.has("dims")) base.dims = dimsForLabels(labels.length);
   const trainTokens = encode(base).train.tokenTotal;
@@ -150,7 +180,8 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   const headOf = (settings: BuildSettings): HeadKind => (settings.head === "auto" ? job.head : settings.head);
   let deadline = started + budgetSeconds * 1000;
   const run = (name: string, settings: BuildSettings, probe?: { subset: Int32Array; epochs: number }): SearchCandidate => {
-    const candidate = trainCandidate(name, settings, headOf(settings), encode(settings), job, explicit.has("epochs"), deadline, probe);
+    const data = probe ? probeData(settings, probe.subset) : { encoded: encode(settings), subset: undefined };
+    const candidate = trainCandidate(name, settings, headOf(settings), data.encoded, job, explicit.has("epochs"), deadline, probe && { subset: data.subset as Int32Array, epochs: probe.epochs });
     if (candidate.stoppedByTime) stoppedByBudget = true;
     candidates.push(candidate);
     job.onMessage?.(`search: ${name}: validation accuracy ${candidate.accuracy.toFixed(4)}, macro-F1 ${candidate.macroF1.toFixed(4)} after ${candidate.epochs} epochs (${candidate.seconds.toFixed(1)} s)`);
@@ -226,9 +257,9 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   };
   if (!explicit.has("charSpan")) {
     // The option the probe did not start from, on all the data. Training time follows the
-    // feature count: measure it (the encoding is needed anyway).
+    // feature count: count it (from the encoding, or a survey when it is not encoded yet).
     const other: [number, number] = base.charSpan[0] === 0 ? SEARCH_CHAR_SPAN : [0, 0];
-    const costFactor = encode({ ...bestSettings, charSpan: other }).train.features.length / Math.max(1, encode(bestSettings).train.features.length);
+    const costFactor = featureTotal({ ...bestSettings, charSpan: other }) / Math.max(1, featureTotal(bestSettings));
     consider(other[0] === 0 ? "words only" : `char n-grams ${other.join("-")}`, { charSpan: other }, costFactor);
   }
   // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
@@ -272,13 +303,17 @@ function pickSettings(settings: BuildSettings, head: HeadKind): SearchCandidate[
 }
 
 /** Trains one candidate with early stopping and scores it; a diverged run scores −∞. */
-function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, encoded: { train: EncodedExamples; validation: EncodedExamples }, job: SearchJob, fixedEpochs: boolean, deadline: number, probe?: { subset: Int32Array; epochs: number }): SearchCandidate {
+function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, encoded: { train: EncodedExamples; validation: EncodedExamples; vocabulary?: Vocabulary; labelCounts?: Float64Array }, job: SearchJob, fixedEpochs: boolean, deadline: number, probe?: { subset: Int32Array; epochs: number }): SearchCandidate {
   const started = performance.now();
-  const vocabulary = buildVocabulary(encoded.train, settings.hashBits, settings.minDocs);
+  const vocabulary = encoded.vocabulary ?? buildVocabulary(encoded.train, settings.hashBits, settings.minDocs);
   const trainRows = mapToRows(encoded.train, vocabulary.slots, settings.hashBits);
   const validationRows = mapToRows(encoded.validation, vocabulary.slots, settings.hashBits);
-  const labelCounts = new Float64Array(job.labels.length);
-  for (let i = 0; i < trainRows.labelList.length; i++) labelCounts[trainRows.labelList[i]]++;
+  // A probe's subsample brings the vocabulary and label counts of all the training data.
+  let labelCounts = encoded.labelCounts;
+  if (labelCounts === undefined) {
+    labelCounts = new Float64Array(job.labels.length);
+    for (let i = 0; i < trainRows.labelList.length; i++) labelCounts[trainRows.labelList[i]]++;
+  }
   const tree = head === "tree" ? huffmanTree(labelCounts) : null;
   const paths = tree ? treePaths(tree, job.labels.length) : null;
   const random = createRandom(settings.seed);

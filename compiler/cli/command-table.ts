@@ -63,12 +63,18 @@ const DATA: OptionGroup = {
   },
 };
 
-const QUIET: OptionSpec = { description: "no progress and no messages on stderr" };
-const FORCE: OptionSpec = { description: "replace the output file if it exists" };
+// The output options several commands share, each spelled and described once: a command
+// says only what differs (the file it writes by default, what its JSON holds).
+const QUIET: OptionTable = { "--quiet": { description: "no progress and no messages on stderr" } };
 
 /** `--json` with what it prints for this command. */
-function json(prints: string): OptionSpec {
-  return { description: `print ${prints} on stdout instead of text` };
+function json(prints: string): OptionTable {
+  return { "--json": { description: `print ${prints} on stdout instead of text` } };
+}
+
+/** `--out` (the file written, its default) and `--force`, which always come together. */
+function outputFile(defaultFile: string, description: string): OptionTable {
+  return { "--out": { value: "file", default: defaultFile, description }, "--force": { description: "replace the output file if it exists" } };
 }
 
 /** The flag spelling of a build setting, as shown in help (`--[no-]calibrate` for an on-by-default switch). */
@@ -127,10 +133,9 @@ export const COMMAND_TABLE = {
           "--config": { value: "file", description: "settings file (sluice.config.json, as `sluice tune` writes it); flags override it" },
           "--on-disk": { default: "when an in-memory build would exceed --max-memory", description: "stream the data through shards on disk (bounded memory, one thread)" },
           "--max-memory": { value: "SIZE", default: "2 × the data file + 300 MB", description: "memory budget: data whose in-memory build is projected (examples × tokens, from a sample) to need more is built on disk" },
-          "--out": { value: "file", default: "model.sluice", description: "output model file" },
-          "--force": FORCE,
-          "--json": json("the build report as one JSON object"),
-          "--quiet": QUIET,
+          ...outputFile("model.sluice", "output model file"),
+          ...json("the build report as one JSON object"),
+          ...QUIET,
         },
       },
     ],
@@ -139,7 +144,7 @@ export const COMMAND_TABLE = {
     arguments: "<model> <data>",
     summary: "metrics on labelled data",
     details: ["Accuracy, macro/micro-F1, per-label precision, recall and F1, confusion, log loss, ECE before and", "after calibration, the policy's precision with 95% Wilson intervals and review share, and a", "warning when evaluated texts also occur in the training data."],
-    groups: [DATA, { title: "output", options: { "--json": json("one JSON object"), "--quiet": QUIET } }],
+    groups: [DATA, { title: "output", options: { ...json("one JSON object"), ...QUIET } }],
   },
   classify: {
     arguments: "<model> [data | -]",
@@ -151,8 +156,8 @@ export const COMMAND_TABLE = {
         title: "output",
         options: {
           "--top": { value: "N", default: "the best label (sigmoid head: every label above its threshold)", description: "labels listed per text" },
-          "--json": json("JSON Lines, one object per text ({ text, labels, decision })"),
-          "--quiet": QUIET,
+          ...json("JSON Lines, one object per text ({ text, labels, decision })"),
+          ...QUIET,
         },
       },
     ],
@@ -166,7 +171,7 @@ export const COMMAND_TABLE = {
         options: {
           "--top": { value: "N", default: String(SURFACE_DEFAULTS.explainTop), description: "top labels explained" },
           "--features": { value: "N", default: String(SURFACE_DEFAULTS.explainFeatures), description: "features listed per label" },
-          "--json": json("one JSON object"),
+          ...json("one JSON object"),
         },
       },
     ],
@@ -174,7 +179,7 @@ export const COMMAND_TABLE = {
   inspect: {
     arguments: "<model>",
     summary: "header, labels, sizes by section, metrics, policy, provenance",
-    groups: [{ title: "output", options: { "--json": json("one JSON object") } }],
+    groups: [{ title: "output", options: json("one JSON object") }],
   },
   compare: {
     arguments: "<live> <candidate> <data>",
@@ -194,7 +199,7 @@ export const COMMAND_TABLE = {
           "--metric": { value: "accuracy|macro-f1", values: ["accuracy", "macro-f1"], default: "accuracy", description: "metric for --max-regression" },
         },
       },
-      { title: "output", options: { "--json": json("one JSON object (all flip counts, the first 50 of each kind)"), "--quiet": QUIET } },
+      { title: "output", options: { ...json("one JSON object (all flip counts, the first 50 of each kind)"), ...QUIET } },
     ],
     exitCodes: {
       [COMPARE_EXIT_CODES.notBetter]: "--require-better: the candidate is not significantly better",
@@ -211,9 +216,8 @@ export const COMMAND_TABLE = {
         title: "output",
         options: {
           "--evasion": { value: "file", description: "draw the evasion suite's results (test/bench/results/evasion.json) instead of a model's report" },
-          "--out": { value: "file", default: "report.html", description: "output HTML file" },
-          "--force": FORCE,
-          "--quiet": QUIET,
+          ...outputFile("report.html", "output HTML file"),
+          ...QUIET,
         },
       },
     ],
@@ -228,9 +232,8 @@ export const COMMAND_TABLE = {
         options: {
           "--stats": { value: "file", description: "the answer of GET /v1/stats?hours=N" },
           "--shadow": { value: "file", description: "the answer of GET /v1/shadow?hours=N" },
-          "--out": { value: "file", default: "traffic.html", description: "output HTML file" },
-          "--force": FORCE,
-          "--quiet": QUIET,
+          ...outputFile("traffic.html", "output HTML file"),
+          ...QUIET,
         },
       },
     ],
@@ -254,7 +257,7 @@ export const COMMAND_TABLE = {
           "--seed": { value: "N", default: String(BUILD_SETTINGS.seed.default), description: "seed of the search and the builds" },
         },
       },
-      { title: "output", options: { "--out": { value: "file", default: "sluice.config.json", description: "config file for `sluice build --config`" }, "--force": FORCE, "--json": json("the result as one JSON object"), "--quiet": QUIET } },
+      { title: "output", options: { ...outputFile("sluice.config.json", "config file for `sluice build --config`"), ...json("the result as one JSON object"), ...QUIET } },
     ],
   },
   serve: {

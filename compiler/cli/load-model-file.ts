@@ -4,15 +4,18 @@ import { readFileSync } from "node:fs";
 import { loadModel } from "../../runtime/format/load-model.ts";
 import { ModelFormatError } from "../../runtime/errors.ts";
 import type { Model } from "../../runtime/model/model.ts";
+import { checkInputFile } from "./input-path.ts";
 import type { FieldDefaults } from "./read-data.ts";
 
-/** Loads `path`; throws ModelFormatError with the path prefixed, or a plain error when unreadable. */
+/** Loads `path`; throws InputPathError when it is missing or a folder, ModelFormatError with
+ * the path prefixed when it is not a good model, or a plain error when it cannot be read. */
 export function loadModelFile(path: string): Model {
+  checkInputFile(path, "model file");
   let bytes: Uint8Array;
   try {
     bytes = readFileSync(path);
   } catch (error) {
-    throw new Error(`cannot read model ${path}: ${(error as NodeJS.ErrnoException).code === "ENOENT" ? "no such file" : (error as Error).message}`);
+    throw new Error(`cannot read model file ${path}: ${(error as Error).message}`);
   }
   try {
     return loadModel(bytes);

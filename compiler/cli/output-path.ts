@@ -57,14 +57,3 @@ function probeWritable(out: string, flag: string): void {
   }
   rmSync(probe, { force: true });
 }
-
-/**
- * Throws OutputPathError when an input path is a folder or missing (instead of a bare EISDIR
- * without a name later).
- * @example checkInputFile("data.csv", "data file")
- */
-export function checkInputFile(path: string | undefined, what: string): void {
-  if (path === undefined || path === "-") return; // "-" is standard input
-  if (!existsSync(path)) throw new OutputPathError(`${what} ${path} does not exist`);
-  if (statSync(path).isDirectory()) throw new OutputPathError(`${what} ${path} is a folder, not a file`);
-}

@@ -4,6 +4,7 @@
 import { createHash } from "node:crypto";
 import { createReadStream } from "node:fs";
 import { createReadReport, readExamples, readExamplesFromText, type DataFormat, type Example, type ReadReport } from "../read/index.ts";
+import { checkInputFile } from "./input-path.ts";
 import { valueOf, type ParsedArgs } from "./parse-args.ts";
 
 /** How to read a file when no flag says otherwise: the model's fields, or a config's. */
@@ -38,8 +39,10 @@ export function readOptionsFrom(args: ParsedArgs, defaults: FieldDefaults, requi
   };
 }
 
-/** Reads every example of `path` ("-" = stdin); prints the read report to stderr. */
+/** Reads every example of `path` ("-" = stdin); prints the read report to stderr. A missing
+ * path or a folder is refused first (before the format is guessed from the name). */
 export async function readData(path: string, args: ParsedArgs, defaults: FieldDefaults, requireLabels: boolean, quiet: boolean): Promise<{ examples: Example[]; report: ReadReport }> {
+  checkInputFile(path, "data file");
   const options = readOptionsFrom(args, defaults, requireLabels);
   const report = createReadReport(path);
   const examples: Example[] = [];

@@ -16,6 +16,7 @@
 //   otherwise T = 1, and the report says why.
 
 import type { HeadKind } from "../../runtime/format/model-header.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import type { LabelledText, ScoredSet } from "../evaluate/evaluate.ts";
 import { expectedCalibrationError, fitTemperature } from "../metrics/index.ts";
 
@@ -109,9 +110,7 @@ function pick<T extends Float64Array | Int32Array>(values: T, rows: readonly num
 function countErrors(logits: Float64Array, gold: Int32Array, n: number, k: number): number {
   let errors = 0;
   for (let i = 0; i < n; i++) {
-    let best = 0;
-    for (let j = 1; j < k; j++) if (logits[i * k + j] > logits[i * k + best]) best = j;
-    if (best !== gold[i]) errors++;
+    if (topLabel(logits, i * k, k) !== gold[i]) errors++;
   }
   return errors;
 }
@@ -134,15 +133,9 @@ export function topLabelEce(logits: Float64Array, gold: Int32Array, n: number, k
   const confidence = new Float64Array(n);
   const correct = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
-    let max = -Infinity;
-    let best = 0;
-    for (let j = 0; j < k; j++) {
-      const z = logits[i * k + j] / temperature;
-      if (z > max) {
-        max = z;
-        best = j;
-      }
-    }
+    // Dividing by T > 0 keeps the order, so the top logit is the top scaled logit.
+    const best = topLabel(logits, i * k, k);
+    const max = logits[i * k + best] / temperature;
     let sum = 0;
     for (let j = 0; j < k; j++) sum += Math.exp(logits[i * k + j] / temperature - max);
     confidence[i] = 1 / sum;

@@ -21,21 +21,14 @@ import {
 } from "../../runtime/format/format.ts";
 import { validateHeader, type ModelHeader } from "../../runtime/format/model-header.ts";
 import { chooseBucketBits } from "../../runtime/format/slot-index.ts";
+import type { ModelArrays } from "../../runtime/model/model-types.ts";
 import { rowScaleCodeCovering } from "./quantize.ts";
 
 /** A model ready to write: header fields plus numeric arrays. `index` is computed here. */
-export interface ModelContents {
+export interface ModelContents extends ModelArrays {
   header: Omit<ModelHeader, "index" | "rowCount" | "quantization">;
   /** Slot of each row, strictly ascending. */
   slots: Uint32Array;
-  rows: Int8Array | Float32Array;
-  rowScales: Float32Array | null;
-  rowWeights: Float32Array | null;
-  /** Null for "logits" rows (the output layer is multiplied into them). */
-  outputWeights: Int8Array | Float32Array | null;
-  outputScales: Float32Array | null;
-  outputBias: Float32Array;
-  tree: Int32Array | null;
 }
 
 type Typed = Int8Array | Uint8Array | Uint16Array | Uint32Array | Int32Array | Float32Array;

@@ -5,6 +5,7 @@
 // top label too). The CI gates and their exit codes are defined here, the CLI only maps them.
 
 import type { Model } from "../../runtime/model/model.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import { scoreTexts, type LabelledText } from "./evaluate.ts";
 import { computeClassificationMetrics, mcnemarTest, type McNemarResult } from "../metrics/index.ts";
 
@@ -220,8 +221,7 @@ function topLabels(model: Model, texts: string[], index: Map<string, number>): {
   const label = new Int32Array(texts.length);
   const score = new Float32Array(texts.length);
   for (let i = 0; i < texts.length; i++) {
-    let best = 0;
-    for (let j = 1; j < k; j++) if (set.scores[i * k + j] > set.scores[i * k + best]) best = j;
+    const best = topLabel(set.scores, i * k, k);
     label[i] = index.get(model.labels[best]) as number;
     score[i] = set.scores[i * k + best];
   }

@@ -6,7 +6,7 @@
 // of inner-node sigmoids, which cannot be taken apart from the leaves: no answer there unless T = 1.
 
 import type { HeadKind } from "../../runtime/format/model-header.ts";
-import type { ScoredSet } from "./evaluate.ts";
+import { topLabelRows, type ScoredSet } from "./evaluate.ts";
 import { expectedCalibrationError } from "../metrics/index.ts";
 
 /** ECE of the top label (15 equal-width bins), as shipped and at temperature 1. */
@@ -64,14 +64,8 @@ export function calibrationSummary(set: ScoredSet, gold: Int32Array, known: read
 
 function topLabelEce(scores: Float32Array | Float64Array, labelCount: number, gold: Int32Array, known: readonly number[]): number {
   if (known.length === 0) return 0;
-  const confidence = new Float64Array(known.length);
-  const correct = new Uint8Array(known.length);
-  known.forEach((i, n) => {
-    let best = 0;
-    for (let j = 1; j < labelCount; j++) if (scores[i * labelCount + j] > scores[i * labelCount + best]) best = j;
-    // Clamp float rounding (a renormalized 1.0000000000000002) into [0, 1] for the binning.
-    confidence[n] = Math.min(1, scores[i * labelCount + best]);
-    correct[n] = best === gold[i] ? 1 : 0;
-  });
+  const { confidence, correct } = topLabelRows(scores, labelCount, gold, known);
+  // Clamp float rounding (a renormalized 1.0000000000000002) into [0, 1] for the binning.
+  for (let n = 0; n < confidence.length; n++) confidence[n] = Math.min(1, confidence[n]);
   return expectedCalibrationError(confidence, correct, 15);
 }

@@ -2,6 +2,7 @@
 // (exactly what ships), then computes metrics with compiler/metrics.
 
 import type { Model } from "../../runtime/model/model.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import { computeClassificationMetrics, expectedCalibrationError, logLoss, type LabelScores } from "../metrics/index.ts";
 
 /** A text with its gold labels (the readers' Example satisfies this). */
@@ -84,22 +85,40 @@ export function evaluateModel(model: Model, examples: readonly LabelledText[], s
   return metricsFromScores(model.labels, set, gold, known, unknown, set.usPerDoc);
 }
 
-/** Metrics over the `known` rows of a scored set. */
-export function metricsFromScores(labels: readonly string[], set: ScoredSet, gold: Int32Array, known: number[], unknown: Set<string>, usPerDoc: number): EvaluationReport {
-  const k = labels.length;
+/** The top label of each of the `known` rows of a texts × labels score array, its score, and whether it is the gold label. */
+export interface TopLabelRows {
+  predicted: Int32Array;
+  /** The top score as stored (callers that bin it clamp float rounding into [0, 1]). */
+  confidence: Float64Array;
+  correct: Uint8Array;
+}
+
+/**
+ * Reads the top label of every known row once, for the metrics, the calibration summary and the report.
+ * @example topLabelRows(set.scores, labels.length, gold, [0, 1]).correct // Uint8Array [1, 0]
+ */
+export function topLabelRows(scores: ArrayLike<number>, labelCount: number, gold: Int32Array, known: readonly number[]): TopLabelRows {
   const predicted = new Int32Array(known.length);
-  const goldKnown = new Int32Array(known.length);
-  const goldProbability = new Float64Array(known.length);
   const confidence = new Float64Array(known.length);
   const correct = new Uint8Array(known.length);
   known.forEach((i, n) => {
-    let best = 0;
-    for (let j = 1; j < k; j++) if (set.scores[i * k + j] > set.scores[i * k + best]) best = j;
+    const best = topLabel(scores, i * labelCount, labelCount);
     predicted[n] = best;
+    confidence[n] = scores[i * labelCount + best];
+    correct[n] = best === gold[i] ? 1 : 0;
+  });
+  return { predicted, confidence, correct };
+}
+
+/** Metrics over the `known` rows of a scored set. */
+export function metricsFromScores(labels: readonly string[], set: ScoredSet, gold: Int32Array, known: number[], unknown: Set<string>, usPerDoc: number): EvaluationReport {
+  const k = labels.length;
+  const { predicted, confidence, correct } = topLabelRows(set.scores, k, gold, known);
+  const goldKnown = new Int32Array(known.length);
+  const goldProbability = new Float64Array(known.length);
+  known.forEach((i, n) => {
     goldKnown[n] = gold[i];
     goldProbability[n] = set.scores[i * k + gold[i]];
-    confidence[n] = set.scores[i * k + best];
-    correct[n] = best === gold[i] ? 1 : 0;
   });
   const metrics = computeClassificationMetrics(goldKnown, predicted, k, labels);
   return {

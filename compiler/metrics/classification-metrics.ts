@@ -35,6 +35,38 @@ export function labelScoresFromCounts(truePositives: number, predicted: number, 
   };
 }
 
+/** Per-label scores, by index and by name, and their unweighted (macro) means. */
+export interface PerLabelScores {
+  scores: LabelScores[];
+  labels: Record<string, LabelScores>;
+  macroPrecision: number;
+  macroRecall: number;
+  macroF1: number;
+}
+
+/**
+ * Scores every label from its counts (single-label and multi-label metrics alike) and
+ * averages them with equal weight per label.
+ * @example perLabelScores(["ham", "spam"], [3, 1], [4, 1], [3, 2]).macroRecall // (1 + 0.5) / 2
+ */
+export function perLabelScores(labelNames: readonly string[], truePositives: ArrayLike<number>, predicted: ArrayLike<number>, support: ArrayLike<number>): PerLabelScores {
+  const scores: LabelScores[] = [];
+  const labels: Record<string, LabelScores> = {};
+  let sumPrecision = 0;
+  let sumRecall = 0;
+  let sumF1 = 0;
+  for (let l = 0; l < labelNames.length; l++) {
+    const label = labelScoresFromCounts(truePositives[l], predicted[l], support[l]);
+    scores.push(label);
+    labels[labelNames[l]] = label;
+    sumPrecision += label.precision;
+    sumRecall += label.recall;
+    sumF1 += label.f1;
+  }
+  const count = labelNames.length;
+  return { scores, labels, macroPrecision: sumPrecision / count, macroRecall: sumRecall / count, macroF1: sumF1 / count };
+}
+
 /** Everything `computeClassificationMetrics` reports. */
 export interface ClassificationMetrics {
   examples: number;
@@ -90,26 +122,17 @@ export function computeClassificationMetrics(
     for (let p = 0; p < labelCount; p++) predictedCount[p] += confusion[g][p];
   }
 
-  const labels: Record<string, LabelScores> = {};
-  let sumPrecision = 0;
-  let sumRecall = 0;
-  let sumF1 = 0;
+  const truePositives = confusion.map((row, l) => row[l]);
+  const support = confusion.map((row) => row.reduce((sum, count) => sum + count, 0));
+  const perLabel = perLabelScores(labelNames, truePositives, predictedCount, support);
   let weightedPrecision = 0;
   let weightedRecall = 0;
   let weightedF1 = 0;
   for (let l = 0; l < labelCount; l++) {
-    const truePositives = confusion[l][l];
-    let support = 0;
-    for (let p = 0; p < labelCount; p++) support += confusion[l][p];
-    const scores = labelScoresFromCounts(truePositives, predictedCount[l], support);
-    const { precision, recall, f1 } = scores;
-    labels[labelNames[l]] = scores;
-    sumPrecision += precision;
-    sumRecall += recall;
-    sumF1 += f1;
-    weightedPrecision += precision * support;
-    weightedRecall += recall * support;
-    weightedF1 += f1 * support;
+    const { precision, recall, f1 } = perLabel.scores[l];
+    weightedPrecision += precision * support[l];
+    weightedRecall += recall * support[l];
+    weightedF1 += f1 * support[l];
   }
 
   // Micro: every example adds one prediction and one gold label, so summed tp/(tp+fp) and
@@ -118,14 +141,14 @@ export function computeClassificationMetrics(
   return {
     examples,
     accuracy,
-    macroPrecision: sumPrecision / labelCount,
-    macroRecall: sumRecall / labelCount,
-    macroF1: sumF1 / labelCount,
+    macroPrecision: perLabel.macroPrecision,
+    macroRecall: perLabel.macroRecall,
+    macroF1: perLabel.macroF1,
     microF1: divideOrZero(2 * correct, 2 * examples),
     weightedPrecision: divideOrZero(weightedPrecision, examples),
     weightedRecall: divideOrZero(weightedRecall, examples),
     weightedF1: divideOrZero(weightedF1, examples),
-    labels,
+    labels: perLabel.labels,
     confusion,
   };
 }

@@ -2,6 +2,8 @@
 // bad input apart from bugs and show the message as-is: it names the function, the
 // argument, the index and what was expected.
 
+import { codedErrorClass } from "../../runtime/coded-error.ts";
+
 /** Why a metric function refused its input. */
 export const METRICS_INPUT_ERROR_CODES = {
   "length-mismatch": "two inputs that must line up have different lengths",
@@ -14,15 +16,7 @@ export const METRICS_INPUT_ERROR_CODES = {
 export type MetricsInputErrorCode = keyof typeof METRICS_INPUT_ERROR_CODES;
 
 /** Thrown by `compiler/metrics` functions on bad input; `code` says which kind. */
-export class MetricsInputError extends Error {
-  readonly code: MetricsInputErrorCode;
-
-  constructor(code: MetricsInputErrorCode, message: string) {
-    super(message);
-    this.name = "MetricsInputError";
-    this.code = code;
-  }
-}
+export class MetricsInputError extends codedErrorClass("MetricsInputError", METRICS_INPUT_ERROR_CODES) {}
 
 /**
  * Builds a `MetricsInputError` whose message starts with the function that refused the input.

@@ -13,7 +13,7 @@ import {
   divideOrZero,
   type NumberList,
 } from "./input-checks.ts";
-import { labelScoresFromCounts, type LabelScores } from "./classification-metrics.ts";
+import { perLabelScores, type LabelScores } from "./classification-metrics.ts";
 
 /** The label indices of one example, in any order. */
 export type LabelSet = Int32Array | NumberList;
@@ -114,26 +114,15 @@ export function computeMultilabelMetrics(
   const counts = countMultilabel(fn, gold, predicted, labelCount);
   const examples = gold.length;
 
-  const labels: Record<string, LabelScores> = {};
-  let sumPrecision = 0;
-  let sumRecall = 0;
-  let sumF1 = 0;
+  const predictedCount = counts.truePositives.map((truePositives, l) => truePositives + counts.falsePositives[l]);
+  const perLabel = perLabelScores(labelNames, counts.truePositives, predictedCount, counts.support);
   let allTruePositives = 0;
   let allPredicted = 0;
   let allGold = 0;
   for (let l = 0; l < labelCount; l++) {
-    const truePositives = counts.truePositives[l];
-    const predictedCount = truePositives + counts.falsePositives[l];
-    const support = counts.support[l];
-    const scores = labelScoresFromCounts(truePositives, predictedCount, support);
-    const { precision, recall, f1 } = scores;
-    labels[labelNames[l]] = scores;
-    sumPrecision += precision;
-    sumRecall += recall;
-    sumF1 += f1;
-    allTruePositives += truePositives;
-    allPredicted += predictedCount;
-    allGold += support;
+    allTruePositives += counts.truePositives[l];
+    allPredicted += predictedCount[l];
+    allGold += counts.support[l];
   }
 
   return {
@@ -143,10 +132,10 @@ export function computeMultilabelMetrics(
     microPrecision: divideOrZero(allTruePositives, allPredicted),
     microRecall: divideOrZero(allTruePositives, allGold),
     microF1: divideOrZero(2 * allTruePositives, allPredicted + allGold),
-    macroPrecision: sumPrecision / labelCount,
-    macroRecall: sumRecall / labelCount,
-    macroF1: sumF1 / labelCount,
-    labels,
+    macroPrecision: perLabel.macroPrecision,
+    macroRecall: perLabel.macroRecall,
+    macroF1: perLabel.macroF1,
+    labels: perLabel.labels,
   };
 }
 

@@ -1,6 +1,9 @@
-// Typed errors for training and test data: one code map and one error class, so the CLI
-// can switch on `code` and print the message as is. Every message starts with where the
-// problem is (file, line, field), then says what was expected and what was found.
+// Typed errors for training and test data: one code map and one error class (made by the
+// runtime's coded-error factory), so the CLI can switch on `code` and print the message as
+// is. Every message starts with where the problem is (file, line, field), then says what was
+// expected and what was found.
+
+import { codedErrorClass } from "../../runtime/coded-error.ts";
 
 /**
  * Why a data file or one of its rows was refused. "row" problems can be skipped with
@@ -43,17 +46,14 @@ export function describeLocation(location: DataLocation): string {
 }
 
 /** Data that cannot be read as examples. The message names the file, line and field. */
-export class DataError extends Error {
-  readonly code: DataErrorCode;
+export class DataError extends codedErrorClass("DataError", DATA_ERROR_CODES) {
   readonly file: string;
   /** 1-based line where the offending record starts, when the problem belongs to one. */
   readonly line: number | null;
   readonly field: string | null;
 
   constructor(code: DataErrorCode, location: DataLocation, detail: string) {
-    super(`${describeLocation(location)}: ${detail}`);
-    this.name = "DataError";
-    this.code = code;
+    super(code, `${describeLocation(location)}: ${detail}`);
     this.file = location.file;
     this.line = location.line ?? null;
     this.field = location.field ?? null;

@@ -33,6 +33,7 @@ async function openDataFile(file: string): Promise<Readable> {
   try {
     handle = await open(file, "r");
   } catch (error) {
+    if ((error as NodeJS.ErrnoException).code === "ENOENT") throw new DataError("unreadable", { file }, "no such file");
     const reason = error instanceof Error ? error.message : String(error);
     throw new DataError("unreadable", { file }, `cannot open the file (${reason})`);
   }
@@ -57,8 +58,16 @@ export async function* readExamples(
   options: ReadOptions = {},
   report: ReadReport = createReadReport(file),
 ): AsyncGenerator<Example> {
-  const context = createReadContext(file, options, report);
-  yield* readSource(await openDataFile(file), context);
+  // Opened first, so a missing file or a folder is named as such, not as a name without a known extension.
+  const source = await openDataFile(file);
+  let context: ReadContext;
+  try {
+    context = createReadContext(file, options, report);
+  } catch (error) {
+    source.destroy();
+    throw error;
+  }
+  yield* readSource(source, context);
 }
 
 /**

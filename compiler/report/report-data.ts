@@ -4,7 +4,7 @@
 
 import type { Model } from "../../runtime/model/model.ts";
 import type { PolicyRule } from "../../runtime/model/policy.ts";
-import { evaluateModel, goldIndexes, scoreTexts, type EvaluationReport, type LabelledText } from "../evaluate/evaluate.ts";
+import { evaluateModel, goldIndexes, scoreTexts, topLabelRows, type EvaluationReport, type LabelledText } from "../evaluate/evaluate.ts";
 import { expectedCalibrationError, precisionRecallCurve, reliabilityBins, type CurvePoint, type ReliabilityBin } from "../metrics/index.ts";
 
 /** Equal-width confidence bins of the reliability diagram (Guo et al. 2017 use 15). */
@@ -78,17 +78,9 @@ export function collectReportData(model: Model, examples: readonly ReportExample
   const known: number[] = [];
   for (let i = 0; i < gold.length; i++) if (gold[i] >= 0) known.push(i);
 
-  const confidence = new Float64Array(known.length);
-  const correct = new Uint8Array(known.length);
-  const predicted = new Int32Array(known.length);
-  known.forEach((i, n) => {
-    let best = 0;
-    for (let k = 1; k < labelCount; k++) if (scored.scores[i * labelCount + k] > scored.scores[i * labelCount + best]) best = k;
-    predicted[n] = best;
-    // Scores are float32; clamp so rounding can never leave [0, 1].
-    confidence[n] = Math.min(1, Math.max(0, scored.scores[i * labelCount + best]));
-    correct[n] = best === gold[i] ? 1 : 0;
-  });
+  const { confidence, correct, predicted } = topLabelRows(scored.scores, labelCount, gold, known);
+  // Scores are float32; clamp so rounding can never leave [0, 1].
+  for (let n = 0; n < confidence.length; n++) confidence[n] = Math.min(1, Math.max(0, confidence[n]));
 
   const labelReports = labels.map((label, k) => {
     const scores = new Float64Array(known.length);

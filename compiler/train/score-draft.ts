@@ -3,6 +3,7 @@
 // predict the most probable label; sigmoid predicts every label above 1/2.
 
 import { labelScoresFromCounts } from "../metrics/classification-metrics.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import type { Draft } from "./draft.ts";
 import type { EncodedExamples } from "./encode.ts";
 import { computeHidden, type TreePaths } from "./steps.ts";
@@ -70,14 +71,8 @@ export function scoreDraft(draft: Draft, data: EncodedExamples, paths: TreePaths
         labelLog[k] = sum;
       }
     }
-    let best = 0;
-    let max = -Infinity;
-    for (let k = 0; k < labelCount; k++) {
-      if (labelLog[k] > max) {
-        max = labelLog[k];
-        best = k;
-      }
-    }
+    const best = topLabel(labelLog, 0, labelCount);
+    const max = labelLog[best];
     const gold = data.labelList[labelStart];
     if (draft.head === "softmax") {
       let sum = 0;

@@ -4,17 +4,16 @@
 // for every word of a text, or for one word when a model's word cache
 // (runtime/model/word-feature-cache.ts) asks, so both see the same slots.
 
-import { pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
+import { CHAR_GRAM_FEATURE, pushOrigin, pushSlot, type FeatureBuffer } from "./feature-buffer.ts";
 import { finish, mixBlock, mixTail } from "./murmur3.ts";
 import { WORD_EDGE } from "./token-kinds.ts";
 
 /**
- * Appends the character n-grams of the word `chars[first .. first + wordLength)`; with names,
- * `source` (the word's original text when folding changed it, else null) is each one's source.
+ * Appends the character n-grams of the word `chars[first .. first + wordLength)`, which is
+ * token `token` of the text (recorded as their origin when `out` keeps origins).
  */
-export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer, source: string | null): void {
-  const names = out.names;
-  const sources = out.sources;
+export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength: number, charMin: number, charMax: number, seed: number, mask: number, out: FeatureBuffer, token: number): void {
+  const withOrigins = out.origins !== null;
   const framedLength = wordLength + 2; // the word with an edge byte on each side
   for (let start = 0; start < framedLength; start++) {
     // MurmurHash3 of the UTF-8 bytes of framed[start .. start + length), for each length,
@@ -47,14 +46,13 @@ export function emitWordCharGrams(chars: Uint16Array, first: number, wordLength:
       if (length < charMin) continue;
       if (length === 1 && isEdge) continue; // an edge alone says nothing
       pushSlot(out, finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes) & mask);
-      if (names) names.push(charGramName(chars, first, wordLength, start, length));
-      if (sources) sources.push(source);
+      if (withOrigins) pushOrigin(out, CHAR_GRAM_FEATURE, length, token, start);
     }
   }
 }
 
 /** A character n-gram as people read it: "·" marks the start or end of the word. */
-function charGramName(chars: Uint16Array, first: number, wordLength: number, start: number, length: number): string {
+export function charGramName(chars: Uint16Array, first: number, wordLength: number, start: number, length: number): string {
   let name = "";
   for (let position = start; position < start + length; position++) {
     name += position === 0 || position === wordLength + 1 ? "·" : String.fromCharCode(chars[first + position - 1]);

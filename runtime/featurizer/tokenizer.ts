@@ -2,8 +2,11 @@
 // reads each chunk as a URL, an e-mail address, or words / numbers / codes / kept punctuation
 // / emoji. Each token's MurmurHash3 is computed while its characters are read; word
 // characters are kept only when character n-grams or names need them. This file is one hot
-// loop over char codes (it runs once per character of every text), so it stays long on
-// purpose rather than being split into calls.
+// loop over char codes (it runs once per character of every text: readPlainChunk, the fast
+// path; readChunk and tokenizeSpan; readWord), so it stays long (about 500 lines) on purpose
+// rather than being split into calls. The evasion folding rules it applies under
+// normalization 2 live apart: the word-level rules in evasion-rules.ts, the joining of spaced
+// single letters in spaced-letter-runs.ts; only their few inline checks stay in readWord's loop.
 
 import { charCodesToString } from "./char-codes-to-string.ts";
 import {
@@ -24,6 +27,7 @@ import { chunkEnd, isEmailAddress, isOpeningBracket, lowerAscii, startsWithAscii
 import type { FeatureSeeds } from "./feature-seeds.ts";
 import { Murmur3Stream, finish, mixBlock, mixTail, murmur3String } from "./murmur3.ts";
 import { capRuns, endsInRepeatedDigit, hashCodes, leetLetterOfDigit, paddingEnd, symbolLetter } from "./evasion-rules.ts";
+import { SpacedLetterRun } from "./spaced-letter-runs.ts";
 import { ASCII_WORD_BYTES, CODE, EMAIL, MARK, NUMBER, NUMBER_NAMES, URL, WORD } from "./token-kinds.ts";
 
 /** Reads tokens into reusable typed arrays; the featurizer reads them back after `tokenize`. */
@@ -69,13 +73,9 @@ export class Tokenizer {
   extraTextEnd: number[] = [];
   extraTotal = 0;
 
-  // The open run of single letters (see addToken).
+  // The text being read, and its open run of single letters (see addToken).
   private text = "";
-  private singleCount = 0;
-  private singleFirst = 0;
-  private singleEnd = 0;
-  private singleSeparator = -1;
-  private singleLetters = new Uint16Array(64);
+  private readonly singles: SpacedLetterRun;
 
   constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false, fold = false) {
     this.maxTokens = maxTokens;
@@ -87,6 +87,7 @@ export class Tokenizer {
     this.codeHash = murmur3String("[code]", seeds.shape);
     this.emailHash = murmur3String("[email]", seeds.shape);
     this.markHashes = Uint32Array.from(["?", "??", "???", "!", "!!", "!!!"], (mark) => murmur3String(mark, this.wordSeed));
+    this.singles = new SpacedLetterRun(this, this.wordSeed);
   }
 
   /** Set when a token beyond maxTokens was found: the text was cut (and reading stopped). */
@@ -102,7 +103,7 @@ export class Tokenizer {
     this.hasMoreText = false;
     this.extraTotal = 0;
     this.text = text;
-    this.singleCount = 0;
+    this.singles.count = 0;
     const length = text.length;
     let i = 0;
     while (i < length && !this.hasMoreText) {
@@ -114,7 +115,7 @@ export class Tokenizer {
       const plainEnd = this.plainChunks ? this.readPlainChunk(text, i, length) : -1;
       i = plainEnd >= 0 ? plainEnd : this.readChunk(text, i, length);
     }
-    if (this.singleCount > 0) this.joinSingles();
+    if (this.singles.count > 0) this.singles.join(this.withNames);
     this.text = "";
   }
 
@@ -126,42 +127,6 @@ export class Tokenizer {
       this.extraTextStart[index] = textStart;
       this.extraTextEnd[index] = textEnd;
     }
-  }
-
-  /** A single letter at `at` was read: it continues the open run, or starts a new one. */
-  private extendSingles(at: number): void {
-    const text = this.text;
-    const separator = at > 0 ? text.charCodeAt(at - 1) : -1;
-    const continues = this.singleCount > 0 && at === this.singleEnd + 1 && (this.singleCount === 1 || separator === this.singleSeparator);
-    if (!continues) {
-      if (this.singleCount > 0) this.joinSingles();
-      this.singleFirst = this.tokenTotal;
-    } else if (this.singleCount === 1) {
-      this.singleSeparator = separator;
-    }
-    if (this.singleCount === this.singleLetters.length) {
-      const grown = new Uint16Array(this.singleLetters.length * 2);
-      grown.set(this.singleLetters);
-      this.singleLetters = grown;
-    }
-    this.singleLetters[this.singleCount++] = lowerAscii(text.charCodeAt(at));
-    this.singleEnd = at + 1;
-  }
-
-  /** Closes the open run of single letters: three or more become one word. */
-  private joinSingles(): void {
-    const count = this.singleCount;
-    this.singleCount = 0;
-    const first = this.singleFirst;
-    if (count < 3 || first + count > this.tokenTotal) return; // the run's last letter may have been past the token limit
-    const last = first + count - 1;
-    this.tokenHashes[first] = hashCodes(this.singleLetters, 0, count, this.wordSeed);
-    this.tokenCharEnd[first] = this.tokenCharEnd[last];
-    if (this.withNames) {
-      this.tokenNames[first] = charCodesToString(this.singleLetters, 0, count);
-      this.tokenTextEnd[first] = this.tokenTextEnd[last];
-    }
-    this.tokenTotal = first + 1;
   }
 
   /** Off only in tests, to check that the fast path reads exactly what readChunk reads. */
@@ -184,6 +149,7 @@ export class Tokenizer {
     let apostrophes = 0;
     let previous = 0; // the last byte hashed
     let beforePrevious = 0;
+    const fold = this.fold; // tested first, so normalization 1 pays nothing for the folding checks
     let i = start;
     while (i < length) {
       const code = text.charCodeAt(i);
@@ -205,7 +171,7 @@ export class Tokenizer {
         pending = 0;
       }
       // Three of one letter in a row ("freeee"): the folding reader bounds the run.
-      if (byte === previous && byte === beforePrevious && byte > 0x39 && this.fold) return -1;
+      if (fold && byte === previous && byte === beforePrevious && byte > 0x39) return -1;
       beforePrevious = previous;
       previous = byte;
       i++;
@@ -213,7 +179,7 @@ export class Tokenizer {
     const bytes = i - start;
     if (bytes === 0) return -1;
     // Letters mixed with digits ("fr33"): the folding reader decides whether they are leetspeak.
-    if (digits > 0 && digits + apostrophes < bytes && this.fold) return -1;
+    if (fold && digits > 0 && digits + apostrophes < bytes) return -1;
     let end = i;
     let markCode = 0;
     let markRepeats = 0;
@@ -293,7 +259,7 @@ export class Tokenizer {
         this.wordCharTotal = charsBefore;
         this.hasMoreText = false;
         this.extraTotal = Math.min(this.extraTotal, extrasBefore);
-        if (this.singleCount > 0) this.singleCount = Math.max(0, Math.min(this.singleCount, tokensBefore - this.singleFirst));
+        this.singles.takeBack(tokensBefore);
         this.addToken(EMAIL, this.emailHash, -1, -1, "[email]", coreStart, coreEnd);
         return this.tokenizeSpan(text, coreEnd, length);
       }
@@ -510,14 +476,15 @@ export class Tokenizer {
   /**
    * Appends one token. Under the folding rules, a run of three or more single letters each one
    * separator apart, the same separator each time ("f r e e", "f.r.e.e", "f-r-e-e"), becomes
-   * one word: the run is held open while it grows and joined when something else follows.
+   * one word: the run is held open while it grows and joined when something else follows
+   * (spaced-letter-runs.ts).
    */
   private addToken(kind: number, hash: number, charStart: number, charEnd: number, name: string, textStart: number, textEnd: number): void {
     if (this.fold) {
       if (kind === WORD && textEnd - textStart === 1) {
-        this.extendSingles(textStart);
-      } else if (this.singleCount > 0) {
-        this.joinSingles();
+        this.singles.extend(this.text, textStart, this.withNames);
+      } else if (this.singles.count > 0) {
+        this.singles.join(this.withNames);
       }
     }
     if (this.tokenTotal >= this.maxTokens) {

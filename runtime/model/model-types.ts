@@ -4,10 +4,11 @@
 import type { ModelHeader } from "../format/model-header.ts";
 import type { SlotIndex } from "../format/slot-index.ts";
 
-/** The numeric parts of a model, as views over the file. */
-export interface ModelParts {
-  header: ModelHeader;
-  index: SlotIndex;
+/**
+ * The numeric sections of a model, one shape for the writer (compiler/compile/write-model.ts,
+ * ModelContents) and the loader (ModelParts, views over the file).
+ */
+export interface ModelArrays {
   rows: Int8Array | Float32Array;
   rowScales: Float32Array | null;
   rowWeights: Float32Array | null;
@@ -16,6 +17,12 @@ export interface ModelParts {
   outputScales: Float32Array | null;
   outputBias: Float32Array;
   tree: Int32Array | null;
+}
+
+/** The numeric parts of a model, as views over the file. */
+export interface ModelParts extends ModelArrays {
+  header: ModelHeader;
+  index: SlotIndex;
   /** Content id: the file's CRC-32 as 8 hex digits. */
   contentId: string;
   byteLength: number;

@@ -10,7 +10,7 @@
 import { SURFACE_DEFAULTS } from "../surface-defaults.ts";
 import { InputError } from "../errors.ts";
 import { createFeatureBuffer, createFeaturizer, type FeatureBuffer, type Featurizer } from "../featurizer/featurizer.ts";
-import { explainLabels } from "./explain-labels.ts";
+import { explainLabels, type ScoredFeatures } from "./explain-labels.ts";
 import { decideFromScores, failClosed, type Decision } from "./policy.ts";
 import { LabelTree, type NodeScorer } from "./label-tree.ts";
 import type { ClassifyOptions, DecideOptions, Explanation, LabelScore, ModelMeta, ModelParts, ScoreResult } from "./model-types.ts";
@@ -27,10 +27,12 @@ export class Model implements NodeScorer, RowSummer {
   readonly parts: ModelParts;
   readonly featurizer: Featurizer;
   private readonly buffer: FeatureBuffer;
+  /** The features of the text decide or explain read last, with their origins (see readText). */
+  private readonly readBuffer: FeatureBuffer;
   private readonly hidden: Float64Array;
-  /** Scratch of the last scoring call, read by explainLabels. */
-  readonly logits: Float64Array;
-  readonly scores: Float32Array;
+  /** Scratch of the last scoring call. */
+  private readonly logits: Float64Array;
+  private readonly scores: Float32Array;
   readonly tree: LabelTree | null;
   private readonly topLabelScratch: Int32Array;
   private readonly topProbabilityScratch: Float64Array;
@@ -50,6 +52,7 @@ export class Model implements NodeScorer, RowSummer {
     this.labels = header.labels;
     this.featurizer = createFeaturizer(header.featurizer);
     this.buffer = createFeatureBuffer(1024);
+    this.readBuffer = createFeatureBuffer(1024, "origins");
     this.hidden = new Float64Array(header.dims);
     this.logits = new Float64Array(header.outputCount);
     this.scores = new Float32Array(header.labels.length);
@@ -140,12 +143,18 @@ export class Model implements NodeScorer, RowSummer {
   }
 
   private decideChecked(text: string, options: DecideOptions): Decision {
-    const scores = this.scoreText(text);
+    // Without a policy every decision names its drivers, so the text is read once, with
+    // origins. With one, most texts are allowed and need no names: they take the fast path
+    // (with the word cache; reading with origins costs about 2× featurizing), and only a block
+    // or review reads the text a second time, with origins, to name what pushed it.
+    const alwaysExplained = this.parts.header.policy === null;
+    const scores = alwaysExplained ? this.readText(text) : this.scoreText(text);
     const decision = decideFromScores(this.parts.header.policy, this.labels, scores, options.reviewBelow ?? 0);
     if (decision.fault !== undefined) return decision;
     if (this.lastKnown === 0) decision.reasons.push("no known feature in the text: the score is the model's prior");
-    if (decision.action !== "allow" || this.parts.header.policy === null) {
-      const explanation = explainLabels(this, text, [this.labels.indexOf(decision.label)], 3);
+    if (decision.action !== "allow" || alwaysExplained) {
+      const scored = alwaysExplained ? scores : this.readText(text);
+      const explanation = explainLabels(this.readFeatures(scored), [this.labels.indexOf(decision.label)], 3);
       const drivers = explanation.labels[0]?.features.filter((f) => f.contribution > 0) ?? [];
       if (drivers.length > 0) decision.reasons.push(`pushed by ${drivers.map((f) => `"${f.feature}" (+${f.contribution.toFixed(2)})`).join(", ")}`);
     }
@@ -159,9 +168,14 @@ export class Model implements NodeScorer, RowSummer {
    */
   explain(text: string, options: { top?: number; features?: number } = {}): Explanation {
     checkText(text);
-    const scores = this.scoreText(text);
+    const scores = this.readText(text);
     const order = rankLabels(scores, options.top ?? SURFACE_DEFAULTS.explainTop);
-    return explainLabels(this, text, order, options.features ?? SURFACE_DEFAULTS.explainFeatures);
+    return explainLabels(this.readFeatures(scores), order, options.features ?? SURFACE_DEFAULTS.explainFeatures);
+  }
+
+  /** What explainLabels needs of the text readText just scored: its features and scores. */
+  private readFeatures(scores: Float32Array): ScoredFeatures {
+    return { parts: this.parts, featurizer: this.featurizer, tree: this.tree, buffer: this.readBuffer, scores, logits: this.logits };
   }
 
   // ---- scoring ---------------------------------------------------------------------
@@ -191,17 +205,35 @@ export class Model implements NodeScorer, RowSummer {
     return (scale * sum + outputBias[output]) / this.parts.header.calibration.temperature;
   }
 
-  /** Scores of `text` in the shared scratch array (valid until the next call). */
+  /** Scores of `text` in the shared scratch array (valid until the next call); the fast path. */
   private scoreText(text: string): Float32Array {
+    const target = this.parts.header.rowSpace === "logits" ? this.logits : this.hidden;
+    this.sumFeatures(text, target);
+    return this.scoresOfSum(target);
+  }
+
+  /**
+   * Scores of `text` like scoreText, read in one featurize call that keeps every feature and
+   * its origin in readBuffer, so a decision or explanation names its drivers from the very
+   * features it was scored with (the word cache is not used: it leaves words out of the buffer).
+   */
+  private readText(text: string): Float32Array {
+    const target = this.parts.header.rowSpace === "logits" ? this.logits : this.hidden;
+    this.featurizer.featurize(text, this.readBuffer);
+    this.sumBuffer(this.readBuffer, target);
+    return this.scoresOfSum(target);
+  }
+
+  /** From Σ weight · row (in logits or hidden, lastWeight set): the mean, the logits and the scores. */
+  private scoresOfSum(sum: Float64Array): Float32Array {
+    this.divideByWeight(sum);
     if (this.parts.header.rowSpace === "logits") {
       // Logit rows: the mean of the known features' rows is the logit vector, before bias and temperature.
       const logits = this.logits;
-      this.meanOfRows(text, logits);
       const inverseTemperature = 1 / this.parts.header.calibration.temperature;
       const bias = this.parts.outputBias;
       for (let k = 0; k < logits.length; k++) logits[k] = (logits[k] + bias[k]) * inverseTemperature;
     } else {
-      this.meanOfRows(text, this.hidden);
       this.computeLogits();
     }
     this.computeScores();
@@ -211,10 +243,13 @@ export class Model implements NodeScorer, RowSummer {
   /** out = the weighted mean of the rows of the known features of `text` (zero when none is known). */
   private meanOfRows(text: string, out: Float64Array): void {
     this.sumFeatures(text, out);
-    if (this.lastWeight > 0) {
-      const inverse = 1 / this.lastWeight;
-      for (let j = 0; j < out.length; j++) out[j] *= inverse;
-    }
+    this.divideByWeight(out);
+  }
+
+  private divideByWeight(sum: Float64Array): void {
+    if (this.lastWeight <= 0) return;
+    const inverse = 1 / this.lastWeight;
+    for (let j = 0; j < sum.length; j++) sum[j] *= inverse;
   }
 
   /**
@@ -222,20 +257,24 @@ export class Model implements NodeScorer, RowSummer {
    * weight, which is left in lastWeight). With character n-grams, words come from the word cache.
    */
   private sumFeatures(text: string, out: Float64Array): void {
-    const buffer = this.buffer;
     const wordCache = this.wordCache;
-    this.featurizer.featurize(text, buffer, wordCache !== null);
+    this.featurizer.featurize(text, this.buffer, wordCache !== null);
+    this.sumBuffer(this.buffer, out);
+    if (wordCache !== null) {
+      wordCache.addWords(this.featurizer, this, out, this.buffer); // the text's features are summed: its buffer is free
+      this.lastKnown += wordCache.known;
+      this.lastWeight += wordCache.weight;
+    }
+  }
+
+  /** out = Σ weight · row over the buffer's known features; notes what the featurizer saw. */
+  private sumBuffer(buffer: FeatureBuffer, out: Float64Array): void {
     this.lastTokenCount = buffer.tokenCount;
     this.lastTruncated = buffer.truncated;
     out.fill(0);
     const totals = this.sumRows(buffer.slots, buffer.count, out);
     this.lastKnown = totals.known;
     this.lastWeight = totals.weight;
-    if (wordCache !== null) {
-      wordCache.addWords(this.featurizer, this, out, buffer); // the text's features are summed: its buffer is free
-      this.lastKnown += wordCache.known;
-      this.lastWeight += wordCache.weight;
-    }
   }
 
   /** Adds the rows of `slots` into `out`, which starts at zero (RowSummer, for the word cache too). */

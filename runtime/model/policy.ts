@@ -2,6 +2,8 @@
 // Severity decides between rules that fire together: block > review > route > allow.
 // Uncertain cases go to human review; a policy never blocks below its block threshold.
 
+import { topLabel } from "./rank-labels.ts";
+
 /** What the operator wants done with a text. */
 export type Action = "allow" | "review" | "block" | "route";
 
@@ -77,8 +79,7 @@ export function decideFromScores(policy: Policy | null, labels: readonly string[
   for (let k = 0; k < labels.length; k++) {
     if (!Number.isFinite(scores[k])) return failClosed("non-finite-score", `the score of ${labels[k]} is ${scores[k]}`, labels[k]);
   }
-  let top = 0;
-  for (let k = 1; k < labels.length; k++) if (scores[k] > scores[top]) top = k;
+  const top = topLabel(scores, 0, labels.length);
   let decision: Decision = { action: "allow", label: labels[top], score: scores[top], reasons: [] };
   const reasons: string[] = [];
   for (const rule of policy?.rules ?? []) {

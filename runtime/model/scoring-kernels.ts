@@ -5,6 +5,28 @@ import type { SlotIndex } from "../format/slot-index.ts";
 
 const accumulated = { known: 0, weight: 0 };
 
+/**
+ * hidden += coefficient · the float32 row at `base` (hidden.length values). The one Σ w·row of
+ * float rows: the runtime's float32 models (accumulateFloat) and training's forward pass
+ * (compiler/train/steps.ts, computeHidden) both add their rows here. Small enough for the JIT
+ * to inline into both loops; measured with the training loop calling it: no slower (DEVELOPERS.md,
+ * "Scoring").
+ * @example addFloatRow(hidden, rows, row * hidden.length, weight)
+ */
+export function addFloatRow(hidden: Float64Array, rows: Float32Array, base: number, coefficient: number): void {
+  const dims = hidden.length;
+  let j = 0;
+  // Four at a time (dims is usually a multiple of 4): in training this loop and updateRows'
+  // are the training time (measured: 7% faster epochs than one at a time).
+  for (; j + 3 < dims; j += 4) {
+    hidden[j] += coefficient * rows[base + j];
+    hidden[j + 1] += coefficient * rows[base + j + 1];
+    hidden[j + 2] += coefficient * rows[base + j + 2];
+    hidden[j + 3] += coefficient * rows[base + j + 3];
+  }
+  for (; j < dims; j++) hidden[j] += coefficient * rows[base + j];
+}
+
 /** hidden += weight · scale · row for every feature with a kept int8 row (`hidden` may be the logits, for logit rows). */
 export function accumulateInt8(index: SlotIndex, rows: Int8Array, scales: Float32Array, weights: Float32Array | null, slots: Uint32Array, count: number, hidden: Float64Array) {
   const dims = hidden.length;
@@ -93,8 +115,7 @@ export function accumulateFloat(index: SlotIndex, rows: Float32Array, weights: F
     known++;
     const weight = weights === null ? 1 : weights[row];
     total += weight;
-    const base = row * dims;
-    for (let j = 0; j < dims; j++) hidden[j] += weight * rows[base + j];
+    addFloatRow(hidden, rows, row * dims, weight);
   }
   accumulated.known = known;
   accumulated.weight = total;

@@ -1,5 +1,8 @@
 // HTTP errors of the Sluice API: one code map (code → status and meaning) and one error
-// class. Every error leaves the app as { "error": { "code", "message" } }; never a stack.
+// class (made by the runtime's coded-error factory). Every error leaves the app as
+// { "error": { "code", "message" } }; never a stack.
+
+import { codedErrorClass } from "../index.ts";
 
 /** Error codes of the HTTP API, their status and what they mean. */
 export const API_ERROR_CODES = {
@@ -24,14 +27,11 @@ export type ApiErrorCode = keyof typeof API_ERROR_CODES;
 export type ApiErrorStatus = (typeof API_ERROR_CODES)[ApiErrorCode]["status"];
 
 /** An error with an API code; `status` comes from the code map. */
-export class ApiError extends Error {
-  readonly code: ApiErrorCode;
+export class ApiError extends codedErrorClass("ApiError", API_ERROR_CODES) {
   readonly status: ApiErrorStatus;
 
   constructor(code: ApiErrorCode, message: string) {
-    super(message);
-    this.name = "ApiError";
-    this.code = code;
+    super(code, message);
     this.status = API_ERROR_CODES[code].status;
   }
 }

@@ -5,6 +5,7 @@
 
 import type { Model } from "../index.ts";
 import { escapeHtml } from "./escape-html.ts";
+import { pageHead } from "./page-head.ts";
 
 /**
  * The page's HTML for one response.
@@ -14,18 +15,7 @@ export function playgroundPage(model: Model, nonce: string): string {
   const meta = model.meta;
   const nonceAttribute = escapeHtml(nonce);
   const labels = meta.labels.map(escapeHtml).join(", ");
-  return `<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<title>Sluice playground</title>
-<style nonce="${nonceAttribute}">
-  :root { color-scheme: light; }
-  body { font: 16px/1.5 system-ui, sans-serif; color: #1a1a1a; background: #ffffff; margin: 0 auto; max-width: 46rem; padding: 1.5rem; }
-  h1 { font-size: 1.5rem; margin: 0 0 .25rem; }
-  .model { color: #4a4a4a; margin: 0 0 1.25rem; }
-  label { display: block; font-weight: 600; margin: 1rem 0 .25rem; }
+  return `${pageHead("Sluice playground", nonce)}  .model { color: #4a4a4a; margin: 0 0 1.25rem; }
   .hint { color: #4a4a4a; font-weight: 400; font-size: .9rem; }
   textarea, input { box-sizing: border-box; width: 100%; font: inherit; color: #1a1a1a; background: #ffffff; border: 2px solid #5c5c5c; border-radius: 4px; padding: .5rem; }
   textarea { min-height: 8rem; resize: vertical; }

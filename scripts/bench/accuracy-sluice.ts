@@ -8,6 +8,7 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { scoreTexts } from "../../compiler/evaluate/evaluate.ts";
 import { loadModel } from "../../runtime/index.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import type { SuiteRow } from "./accuracy-data.ts";
 
 const REPOSITORY = join(import.meta.dirname ?? new URL(".", import.meta.url).pathname, "..", "..");
@@ -59,9 +60,7 @@ export function runSluice(trainFile: string, modelFile: string, test: readonly S
     if (multiLabel) {
       predictions.push(model.labels.filter((_, j) => row[j] >= thresholds[j]));
     } else {
-      let best = 0;
-      for (let j = 1; j < k; j++) if (row[j] > row[best]) best = j;
-      predictions.push(model.labels[best]);
+      predictions.push(model.labels[topLabel(row)]);
     }
   }
   const printed = multiLabel ? report.validation?.microF1 : (report.compiled?.accuracy ?? report.validation?.accuracy);

@@ -25,6 +25,7 @@ import { join, resolve } from "node:path";
 import { build } from "../../compiler/build/build.ts";
 import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
 import { loadModel, type Model } from "../../runtime/index.ts";
+import { topLabel } from "../../runtime/model/rank-labels.ts";
 import { PERTURBATION_KINDS, perturbText, seedOf, type PerturbationKind } from "./evasion-perturb.ts";
 import { describeMachine, machineInfo, markdownTable, writeResults } from "./results-writer.ts";
 
@@ -137,9 +138,7 @@ function sluiceScores(model: Model, texts: string[], thresholds: Record<string, 
   const flagged: Record<string, boolean[]> = Object.fromEntries(Object.keys(thresholds).map((label) => [label, []]));
   for (const text of texts) {
     model.scoreInto(text, scores);
-    let best = 0;
-    for (let k = 1; k < scores.length; k++) if (scores[k] > scores[best]) best = k;
-    predictions.push(model.labels[best]);
+    predictions.push(model.labels[topLabel(scores)]);
     for (const [label, threshold] of Object.entries(thresholds)) flagged[label].push(scores[model.labels.indexOf(label)] >= threshold);
   }
   return { predictions, flagged };

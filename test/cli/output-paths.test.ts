@@ -1,9 +1,10 @@
 // Output paths are checked before any reading or training, for build, tune --out and
 // report --out: the output is never one of the inputs (compared after symlinks and ./),
 // its folder must exist and take a file, messages name the user's path (not a temporary
-// file), and a killed build's temporary file is removed by the next run.
+// file), and a killed build's temporary file is removed by the next run. traffic-report's
+// --out gets the same checks.
 import { createHash } from "node:crypto";
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
+import { chmodSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, relative } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -67,6 +68,32 @@ describe("sluice build output paths", () => {
     expect(run.stdout).toBe("");
   });
 
+  it("should refuse --out equal to an --also file", async () => {
+    const also = join(folder, "also.csv");
+    writeFileSync(also, "text,label\nrefund please,billing\n");
+    const before = sha(also);
+    const run = await sluice(["build", typed(data), "--also", typed(also), "--out", typed(also), "--force", "--quiet"]);
+    expect(run.code).toBe(1);
+    expect(run.stderr).toContain(`is the input file ${typed(also)}`);
+    expect(sha(also)).toBe(before);
+  });
+
+  it("should refuse a folder it cannot create files in before reading the data", async () => {
+    // Permissions do not stop root, so as root the folder is /sys/kernel: sysfs refuses to
+    // create regular files whoever asks (EACCES, measured on this Linux machine).
+    let readOnly = join(folder, "read-only");
+    if (process.getuid?.() === 0) readOnly = "/sys/kernel";
+    else {
+      mkdirSync(readOnly);
+      chmodSync(readOnly, 0o555);
+    }
+    const out = join(readOnly, "m.sluice");
+    const run = await sluice(["build", typed(data), "--out", out]);
+    expect(run.code).toBe(1);
+    expect(run.stderr).toContain(`--out ${out}: cannot create a file in ${readOnly} (permission denied)`);
+    expect(run.stderr).not.toContain("rows →"); // the data was never read
+  });
+
   it("should refuse an output that is a folder", async () => {
     const run = await sluice(["build", typed(data), "--out", typed(folder), "--force", "--quiet"]);
     expect(run.code).toBe(1);
@@ -97,6 +124,42 @@ describe("sluice tune and report output paths", () => {
     const run = await sluice(["tune", typed(data), "--out", typed(data), "--force", "--quiet"]);
     expect(run.code).toBe(1);
     expect(run.stderr).toContain("is the input file");
+  });
+
+  it("should refuse tune --out spelled through a symlink to its data, and a missing folder, before tuning", async () => {
+    const link = join(folder, "tune-link.csv");
+    symlinkSync(data, link);
+    const viaLink = await sluice(["tune", typed(data), "--out", typed(link), "--force"]);
+    expect(viaLink.code).toBe(1);
+    expect(viaLink.stderr).toContain("is the input file");
+    const out = `${typed(folder)}/nodir/t.json`;
+    const missing = await sluice(["tune", typed(data), "--out", out]);
+    expect(missing.code).toBe(1);
+    expect(missing.stderr).toContain(`--out ${out}: the folder ${typed(folder)}/nodir does not exist`);
+    expect(missing.stderr).not.toContain("rows →");
+  });
+
+  it("should refuse report --out spelled ./ for the data, and a missing folder", async () => {
+    const model = join(folder, "m.sluice");
+    if (!existsSync(model)) expect((await sluice(["build", typed(data), "--out", typed(model), "--epochs", "1", "--quiet"])).code).toBe(0);
+    const viaDot = await sluice(["report", typed(model), typed(data), "--out", `${typed(folder)}/./x.csv`, "--force"]);
+    expect(viaDot.code).toBe(1);
+    expect(viaDot.stderr).toContain("is the input file");
+    const out = `${typed(folder)}/nodir/r.html`;
+    const missing = await sluice(["report", typed(model), typed(data), "--out", out]);
+    expect(missing.code).toBe(1);
+    expect(missing.stderr).toContain(`--out ${out}: the folder ${typed(folder)}/nodir does not exist`);
+  });
+
+  it("should refuse traffic-report --out equal to its --stats file", async () => {
+    const model = join(folder, "m.sluice");
+    if (!existsSync(model)) expect((await sluice(["build", typed(data), "--out", typed(model), "--epochs", "1", "--quiet"])).code).toBe(0);
+    const stats = join(folder, "stats.json");
+    writeFileSync(stats, '{"hours":[]}\n');
+    const run = await sluice(["traffic-report", typed(model), "--stats", typed(stats), "--out", typed(stats), "--force"]);
+    expect(run.code).toBe(1);
+    expect(run.stderr).toContain(`is the input file ${typed(stats)}`);
+    expect(readFileSync(stats, "utf8")).toBe('{"hours":[]}\n');
   });
 
   it("should refuse report --out equal to the model or the data", async () => {

@@ -1,8 +1,8 @@
-// The measurement behind the EMAIL_MIN_SCORE default (0.7, runtime/worker/app-config.ts,
-// wrangler.toml, runtime/worker/README.md), re-taken on every run: the demo routing model on
-// its own validation split, the 600 support e-mails its build held out. The reference is the
-// topic each e-mail is labelled with in demo-data/support-topics.csv (about 3% of labels are
-// wrong on purpose, demo-data/README.md, so agreement tops out near 97%).
+// What the EMAIL_MIN_SCORE default (0.7, runtime/worker/app-config.ts, wrangler.toml,
+// runtime/worker/README.md) is for, checked as rules rather than as the measured shares: on the
+// demo routing model's own validation split (the 600 support e-mails its build held out,
+// labelled in demo-data/support-topics.csv, about 3% wrong on purpose, demo-data/README.md),
+// and on support mails written and labelled by hand.
 
 import { beforeAll, describe, expect, it } from "vitest";
 import { readExamples } from "../../compiler/read/index.ts";
@@ -11,6 +11,7 @@ import { findClusters, groupedSplit } from "../../compiler/train/group-split.ts"
 import type { Model } from "../../runtime/model/model.ts";
 import { DEFAULT_APP_CONFIG } from "../../runtime/worker/app-config.ts";
 import { DEMO_ROUTING_MODEL_ARGS } from "../../scripts/demo-model.ts";
+import { HAND_LABELLED_SUPPORT_MAIL } from "./helpers/hand-labelled-mail.ts";
 import { demoModel, routingModel } from "./helpers/worker-fixture.ts";
 
 const MIN_SCORE = DEFAULT_APP_CONFIG.email.minScore;
@@ -32,46 +33,67 @@ beforeAll(async () => {
   validation = Array.from(split.validation, (index) => examples[index]);
 });
 
-/** Share of validation mail whose top score reaches `threshold`, and how often that top topic is the labelled one. */
-function coverage(threshold: number): { share: number; accuracy: number } {
-  let kept = 0;
+/** Agreement with the labelled topic of the validation mail whose top score is at least `from` and below `to`. */
+function agreement(from: number, to = Infinity): { count: number; accuracy: number } {
+  let count = 0;
   let right = 0;
   for (const example of validation) {
     const [top] = routing.classify(example.text, { top: 1 });
-    if (top.score < threshold) continue;
-    kept++;
+    if (top.score < from || top.score >= to) continue;
+    count++;
     if (top.label === example.labels[0]) right++;
   }
-  return { share: kept / validation.length, accuracy: right / kept };
+  return { count, accuracy: right / count };
 }
 
 describe("the EMAIL_MIN_SCORE default", () => {
   it("is measured on the split the routing model was validated on", () => {
     expect(validation).toHaveLength((routing.meta.metrics as { validationExamples: number }).validationExamples);
     // With no threshold the accuracy is the build's own validation figure, so the split is the same.
-    expect(coverage(0).accuracy).toBeCloseTo((routing.meta.metrics as { compiled: { accuracy: number } }).compiled.accuracy, 5);
+    expect(agreement(0).accuracy).toBeCloseTo((routing.meta.metrics as { compiled: { accuracy: number } }).compiled.accuracy, 5);
   });
 
-  it("routes at least 90% of validation mail automatically, at least 97% of it to the labelled topic", () => {
+  // The stated reason for the threshold (runtime/worker/README.md, "Choosing EMAIL_MIN_SCORE"):
+  // it sends the vaguest mail to a person. So the mail it holds back must be the less reliable
+  // part, and the mail it routes no less reliable than routing everything. The README's table
+  // gives the measured shares; they are measurements, not pinned here.
+  it("holds back the less reliable mail: below it the top topic agrees with the label less often than above it", () => {
     expect(MIN_SCORE).toBe(0.7);
-    const { share, accuracy } = coverage(MIN_SCORE);
-    expect(share).toBeGreaterThanOrEqual(0.9);
-    expect(accuracy).toBeGreaterThanOrEqual(0.97);
+    const above = agreement(MIN_SCORE);
+    const below = agreement(0, MIN_SCORE);
+    expect(above.count).toBeGreaterThan(0);
+    expect(below.count).toBeGreaterThan(0);
+    expect(below.accuracy).toBeLessThan(above.accuracy);
+    expect(above.accuracy).toBeGreaterThanOrEqual(agreement(0).accuracy);
   });
 
-  it("refuses none of the validation mail and leaves at least 83% to the teams once moderation has sent its review band to a person", () => {
-    const moderation = demoModel();
-    let routed = 0;
-    let refused = 0;
-    for (const example of validation) {
-      // The e-mail handler reads "subject, blank line, body"; the data joins the fields with one line break.
-      const text = example.text.replace("\n", "\n\n");
-      const action = moderation.decide(text).action;
-      if (action === "block") refused++;
-      if (action !== "allow") continue;
-      if (routing.classify(text, { top: 1 })[0].score >= MIN_SCORE) routed++;
+  // Known answers: support mails written by hand, each about one topic (helpers/hand-labelled-mail.ts).
+  it("routes every hand-labelled single-topic mail to its own team, above the threshold", () => {
+    for (const { topic, text } of HAND_LABELLED_SUPPORT_MAIL) {
+      const [top] = routing.classify(text, { top: 1 });
+      expect({ text, label: top.label, routed: top.score >= MIN_SCORE }).toEqual({ text, label: topic, routed: true });
     }
-    expect(refused).toBe(0);
-    expect(routed / validation.length).toBeGreaterThanOrEqual(0.83);
+  });
+
+  // With no known feature the score is the model's prior (runtime/model/model.ts), which a
+  // model fitted by cross-entropy puts near the label frequencies (common practice, no source):
+  // at most 25% here (shipping, 1473 of 6000, demo-data/README.md), far below 0.7. So mail the
+  // model cannot read goes to a person.
+  it("sends mail of words the model has never seen to the fallback", () => {
+    const result = routing.score("Zorvik plenthar\n\nQuandrel vospith mirrokan telbu.");
+    expect(result.knownFeatures).toBe(0);
+    expect(Math.max(...result.scores)).toBeLessThan(MIN_SCORE);
+  });
+
+  // Moderation sits in front of routing, and a false positive there silences a real person
+  // (README, "Before you moderate anything": spam is blocked only above a 95%-precision
+  // threshold, abuse and doubt go to review). Support mail is neither spam nor abuse, so none
+  // may be refused; review is allowed (a person then reads it).
+  it("refuses none of the validation mail or the hand-labelled mail once moderation is in front", () => {
+    const moderation = demoModel();
+    // The e-mail handler reads "subject, blank line, body"; the data joins the fields with one line break.
+    const texts = [...validation.map((example) => example.text.replace("\n", "\n\n")), ...HAND_LABELLED_SUPPORT_MAIL.map((mail) => mail.text)];
+    const refused = texts.filter((text) => moderation.decide(text).action === "block");
+    expect(refused).toEqual([]);
   });
 });

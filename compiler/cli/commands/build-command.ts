@@ -16,7 +16,8 @@ import { describeReadReport, readData, readOptionsFrom, readSettingsOf, sha256Of
 import { buildFromFile } from "../../build/build-from-file.ts";
 import { describeChoice } from "../../build/search-settings.ts";
 import { createReadReport } from "../../read/index.ts";
-import { checkInputFile, checkOutputPath } from "../output-path.ts";
+import { checkInputFile } from "../input-path.ts";
+import { checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const BUILD_OPTIONS = optionsOf("build");
@@ -38,10 +39,12 @@ export async function buildCommand(argv: string[]): Promise<number> {
   const force = args.switches.get("--force") === true;
   const validationPath = valueOf(args, "--validation");
   // Before any reading or training: a bad path must not cost a whole training run.
+  const alsoPaths = args.values.get("--also") ?? [];
   checkInputFile(dataPath, "data file");
   checkInputFile(validationPath, "validation file");
+  for (const path of alsoPaths) checkInputFile(path, "--also file");
   checkInputFile(valueOf(args, "--config"), "config file");
-  checkOutputPath(out, { inputs: [dataPath, validationPath, valueOf(args, "--config")], force });
+  checkOutputPath(out, { inputs: [dataPath, validationPath, valueOf(args, "--config"), ...alsoPaths], force });
   const { settings, read, explicit } = settingsFromArgs(args);
   // Flags win over the config's reading settings, which win over the built-in defaults.
   const fields = readSettingsOf(readOptionsFrom(args, read, true));

@@ -5,6 +5,7 @@
 
 import { readFileSync } from "node:fs";
 import { SURFACE_DEFAULTS } from "../../../runtime/surface-defaults.ts";
+import { checkInputFiles } from "../input-path.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
@@ -17,6 +18,7 @@ export async function classifyCommand(argv: string[]): Promise<number> {
   const args = parseArgs(argv, CLASSIFY_OPTIONS);
   if (args.positionals.length < 1 || args.positionals.length > 2) throw new UsageError("classify needs a model and optionally an input: sluice classify <model> [file | -]");
   const [modelPath, input = "-"] = args.positionals;
+  checkInputFiles([[modelPath, "model file"], [input, "input file"]]);
   const topValue = valueOf(args, "--top");
   const top = topValue === undefined ? undefined : Number(topValue);
   if (top !== undefined && (!Number.isInteger(top) || top < 1)) throw new UsageError(`--top: expected a positive integer, got "${topValue}"`);

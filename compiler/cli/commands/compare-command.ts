@@ -3,6 +3,7 @@
 
 import { checkGates, compareModels, COMPARE_EXIT_CODES, formatP, signed, type FlipGroup, type ModelComparison } from "../../evaluate/compare.ts";
 import { fixed, formatTable } from "../format-table.ts";
+import { checkInputFiles } from "../input-path.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
@@ -17,6 +18,7 @@ export async function compareCommand(argv: string[]): Promise<number> {
   const args = parseArgs(argv, COMPARE_OPTIONS);
   if (args.positionals.length !== 3) throw new UsageError("compare needs two models and a data file: sluice compare <live> <candidate> <data>");
   const [livePath, candidatePath, dataPath] = args.positionals;
+  checkInputFiles([[livePath, "live model file"], [candidatePath, "candidate model file"], [dataPath, "data file"]]);
   const gates = gatesFromArgs(args);
   const quiet = args.switches.get("--quiet") === true;
   const live = loadModelFile(livePath);

@@ -9,6 +9,7 @@ import { leakageMessage } from "../../evaluate/evaluate-leakage.ts";
 import type { MultilabelEvaluationReport } from "../../evaluate/evaluate-multilabel.ts";
 import type { PolicyEvaluation } from "../../evaluate/evaluate-policy.ts";
 import { fixed, formatTable } from "../format-table.ts";
+import { checkInputFiles } from "../input-path.ts";
 import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError } from "../parse-args.ts";
@@ -21,6 +22,7 @@ export async function evalCommand(argv: string[]): Promise<number> {
   const args = parseArgs(argv, EVAL_OPTIONS);
   if (args.positionals.length !== 2) throw new UsageError("eval needs a model and a data file: sluice eval <model> <data>");
   const [modelPath, dataPath] = args.positionals;
+  checkInputFiles([[modelPath, "model file"], [dataPath, "data file"]]);
   const quiet = args.switches.get("--quiet") === true;
   const model = loadModelFile(modelPath);
   const { examples } = await readData(dataPath, args, fieldsOf(model), true, quiet);

@@ -11,7 +11,8 @@ import { fieldsOf, loadModelFile } from "../load-model-file.ts";
 import { optionsOf } from "../command-table.ts";
 import { parseArgs, UsageError, valueOf, type ParsedArgs } from "../parse-args.ts";
 import { readData, sha256OfFile } from "../read-data.ts";
-import { checkInputFile, checkOutputPath } from "../output-path.ts";
+import { checkInputFile, checkInputFiles } from "../input-path.ts";
+import { checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const REPORT_OPTIONS = optionsOf("report");
@@ -26,7 +27,7 @@ export async function reportCommand(argv: string[]): Promise<number> {
   const out = valueOf(args, "--out") ?? "report.html";
   const force = args.switches.get("--force") === true;
   const quiet = args.switches.get("--quiet") === true;
-  checkInputFile(dataPath, "data file");
+  checkInputFiles([[modelPath, "model file"], [dataPath, "data file"]]);
   checkOutputPath(out, { inputs: [modelPath, dataPath], force });
   const model = loadModelFile(modelPath);
   const { examples } = await readData(dataPath, args, fieldsOf(model), true, quiet);

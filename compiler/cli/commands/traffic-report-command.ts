@@ -5,7 +5,9 @@
 import { readFileSync } from "node:fs";
 import { renderTrafficReport, type ShadowExport, type StatsExport } from "../../report/traffic-report.ts";
 import { optionsOf } from "../command-table.ts";
+import { checkInputFiles } from "../input-path.ts";
 import { loadModelFile } from "../load-model-file.ts";
+import { checkOutputPath } from "../output-path.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
@@ -29,12 +31,15 @@ export async function trafficReportCommand(argv: string[]): Promise<number> {
   const statsPath = valueOf(args, "--stats");
   const shadowPath = valueOf(args, "--shadow");
   if (statsPath === undefined && shadowPath === undefined) throw new UsageError("traffic-report needs --stats (GET /v1/stats) or --shadow (GET /v1/shadow), or both");
+  const out = valueOf(args, "--out") ?? "traffic.html";
+  const force = args.switches.get("--force") === true;
+  checkInputFiles([[args.positionals[0], "model file"], [statsPath, "--stats file"], [shadowPath, "--shadow file"]]);
+  checkOutputPath(out, { inputs: [args.positionals[0], statsPath, shadowPath], force });
   const model = loadModelFile(args.positionals[0]);
   const stats = statsPath === undefined ? null : readJson<StatsExport>(statsPath, "GET /v1/stats", (v) => Array.isArray(v.hours));
   const shadow = shadowPath === undefined ? null : readJson<ShadowExport>(shadowPath, "GET /v1/shadow", (v) => Array.isArray(v.cells) && typeof v.total === "number");
-  const out = valueOf(args, "--out") ?? "traffic.html";
   const html = renderTrafficReport(model, stats, shadow, new Date().toISOString());
-  writeFileAtomic(out, html, { force: args.switches.get("--force") === true });
+  writeFileAtomic(out, html, { force });
   if (args.switches.get("--quiet") !== true) process.stderr.write(`wrote ${out}: ${Buffer.byteLength(html)} bytes\n`);
   return 0;
 }

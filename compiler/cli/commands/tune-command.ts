@@ -11,7 +11,8 @@ import { optionsOf } from "../command-table.ts";
 import { fixed, formatTable } from "../format-table.ts";
 import { parseArgs, UsageError, valueOf } from "../parse-args.ts";
 import { readData, readOptionsFrom, readSettingsOf } from "../read-data.ts";
-import { checkInputFile, checkOutputPath } from "../output-path.ts";
+import { checkInputFile } from "../input-path.ts";
+import { checkOutputPath } from "../output-path.ts";
 import { writeFileAtomic } from "../write-file-atomic.ts";
 
 const TUNE_OPTIONS = optionsOf("tune");

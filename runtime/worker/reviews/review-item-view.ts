@@ -21,7 +21,8 @@ export interface ReviewItemView {
   decidedLabel: string | null;
   decidedAt: string | null;
   /** The features behind the top labels; only for stored text scored by the model now live. */
-  drivers?: { label: string; score: number; features: { feature: string; contribution: number }[] }[];
+  /** With normalization 2, `foldedFrom` gives the original spans a folded feature was read from ("frее" for "free"). */
+  drivers?: { label: string; score: number; features: { feature: string; contribution: number; foldedFrom?: string[] }[] }[];
 }
 
 const DRIVER_LABELS = 3;
@@ -54,7 +55,7 @@ export function reviewItemView(row: ReviewRow, model: Model, withDrivers: boolea
       label: entry.label,
       score: entry.score,
       // Only the features that pushed towards the label: those are what a reviewer checks.
-      features: entry.features.filter((f) => f.contribution > 0).map((f) => ({ feature: f.feature, contribution: f.contribution })),
+      features: entry.features.filter((f) => f.contribution > 0).map((f) => (f.foldedFrom ? { feature: f.feature, contribution: f.contribution, foldedFrom: f.foldedFrom } : { feature: f.feature, contribution: f.contribution })),
     }));
   }
   return view;

@@ -7,6 +7,7 @@
 
 import type { Model } from "../../index.ts";
 import { escapeHtml } from "../escape-html.ts";
+import { pageHead } from "../page-head.ts";
 
 /**
  * The page's HTML for one response.
@@ -15,18 +16,7 @@ import { escapeHtml } from "../escape-html.ts";
 export function reviewPage(model: Model, nonce: string): string {
   const n = escapeHtml(nonce);
   const labels = JSON.stringify(model.labels).replace(/</g, "\\u003c");
-  return `<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<title>Sluice review</title>
-<style nonce="${n}">
-  :root { color-scheme: light; }
-  body { font: 16px/1.5 system-ui, sans-serif; color: #1a1a1a; background: #ffffff; margin: 0 auto; max-width: 46rem; padding: 1.5rem; }
-  h1 { font-size: 1.5rem; margin: 0 0 .25rem; }
-  .note, .hint { color: #4a4a4a; font-size: .9rem; }
-  label { display: block; font-weight: 600; margin: 1rem 0 .25rem; }
+  return `${pageHead("Sluice review", nonce)}  .note, .hint { color: #4a4a4a; font-size: .9rem; }
   input { box-sizing: border-box; width: 100%; font: inherit; border: 2px solid #5c5c5c; border-radius: 4px; padding: .5rem; }
   button { margin: .5rem .5rem 0 0; font: inherit; font-weight: 600; color: #ffffff; background: #0b4f8a; border: 2px solid #0b4f8a; border-radius: 4px; padding: .4rem 1rem; cursor: pointer; }
   button.skip { color: #1a1a1a; background: #ffffff; border-color: #5c5c5c; }
@@ -110,6 +100,11 @@ export function reviewPage(model: Model, nonce: string): string {
     progress.textContent = done + " decided, " + counts.pending + " left";
   }
 
+  // A folded feature shows what was written: free (from "frее") — why a lookalike counted.
+  function driverText(f) {
+    return f.foldedFrom && f.foldedFrom.length > 0 ? f.feature + " (from " + f.foldedFrom.map((s) => JSON.stringify(s)).join(", ") + ")" : f.feature;
+  }
+
   function show(item) {
     current = item;
     section.hidden = item === null;
@@ -122,7 +117,7 @@ export function reviewPage(model: Model, nonce: string): string {
       const row = document.createElement("tr");
       const label = document.createElement("td"); label.textContent = entry.label;
       const score = document.createElement("td"); score.className = "number"; score.textContent = entry.score === null ? "n/a" : entry.score.toFixed(3);
-      const features = document.createElement("td"); features.textContent = (drivers.get(entry.label) || []).map((f) => f.feature).join(", ") || "—";
+      const features = document.createElement("td"); features.textContent = (drivers.get(entry.label) || []).map(driverText).join(", ") || "—";
       row.append(label, score, features);
       scoreRows.append(row);
     }

@@ -181,4 +181,12 @@ describe("reading files from disk", () => {
     await mkdir(path);
     await expect(readExamples(path).next()).rejects.toMatchObject({ code: "unreadable" });
   });
+
+  it("says a path without a known extension is missing or a folder, not that its format is unknown", async () => {
+    const absent = join(directory, "absent");
+    await expect(readExamples(absent).next()).rejects.toMatchObject({ code: "unreadable", file: absent, message: expect.stringContaining("no such file") });
+    const folder = join(directory, "plain-folder");
+    await mkdir(folder);
+    await expect(readExamples(folder).next()).rejects.toMatchObject({ code: "unreadable", message: expect.stringContaining("is a directory") });
+  });
 });

@@ -256,6 +256,25 @@ describe("character n-grams", () => {
     expect(windows).toHaveLength(expectedCharGrams(6, 3, 4)); // 6 + 5 = 11
   });
 
+  it("names every window by its own characters across many words and repeats (names are reused between words)", () => {
+    // 3,000 distinct words plus a long run of one letter: far more windows than the featurizer
+    // keeps recent names for, so reused and evicted names are both exercised. Each word's
+    // windows are enumerated here as in the "parcel" case above. Normalization 1, whose
+    // words read as written (2 would fold the letter runs).
+    const settings = { ...WORDS_ONLY, normalization: 1, charMin: 3, charMax: 4 };
+    const letters = "abcdefghijklmnopqrstuvwxyz";
+    const words = Array.from({ length: 3000 }, (_, i) => `${letters[i % 26]}${letters[(i * 7) % 26]}${letters[(i * 11) % 26]}q${i.toString(36).replace(/[0-9]/g, (d) => letters[Number(d)])}`);
+    words.push("z".repeat(5000), "zzz", "zzzz");
+    const expected: string[] = [];
+    for (const word of words) {
+      const framed = `·${word}·`;
+      expected.push(word);
+      for (let start = 0; start < framed.length; start++) for (let n = 3; n <= 4 && start + n <= framed.length; n++) expected.push(framed.slice(start, start + n));
+    }
+    // Words come first, then each word's windows; compared as sorted lists like "parcel" above.
+    expect(featuresOf(words.join(" "), { ...settings, maxTokens: 5000 }).names.sort()).toEqual(expected.sort());
+  });
+
   it("adds no character n-grams for shape tokens", () => {
     // Shape tokens ([number:N], [code], [url …], [email]) stand for a class, not for letters.
     const settings = { ...WORDS_ONLY, charMin: 3, charMax: 4 };

@@ -4,6 +4,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { loadModel, ModelFormatError } from "../../../runtime/index.ts";
+import { SECTION } from "../../../runtime/format/format.ts";
 import { ensureDemoModel } from "../../../scripts/demo-model.ts";
 import { headerOf, withChecksum, withHeader } from "./model-mutations.ts";
 
@@ -73,6 +74,33 @@ describe("header validation", () => {
     const error = refusal(edited(policyModel, (h) => Object.assign(h.policy.rules[0], change)));
     expect(error.code).toBe("bad-header");
     expect(error.message).toContain(`policy.rules[0].${field}`);
+  });
+
+  it("should refuse label names that are not strings, or the same name twice", () => {
+    expect(refusal(edited(golden, (h) => (h.labels = ["billing", 3]))).message).toContain("labels");
+    expect(refusal(edited(golden, (h) => (h.labels = ["billing", "billing"]))).message).toContain("distinct");
+  });
+
+  it.each([
+    ["NaN", NaN],
+    ["Infinity", Infinity],
+    ["2^25, beyond the ±2^24 any stored float may hold", 2 ** 25],
+  ])("should refuse an output bias of %s in a section, which the header cannot see", (_name, value) => {
+    // Sections are located through the directory (runtime/format/FORMAT.md): after the
+    // 16-byte preamble and the header, 8-aligned; a u32 count, then 16-byte entries of
+    // id, element type, offset and byte length.
+    const view = new DataView(golden.buffer, golden.byteOffset, golden.byteLength);
+    const directory = (16 + view.getUint32(12, true) + 7) & ~7;
+    let biasOffset = -1;
+    for (let i = 0; i < view.getUint32(directory, true); i++) {
+      const entry = directory + 8 + 16 * i;
+      if (view.getUint32(entry, true) === SECTION.outputBias) biasOffset = view.getUint32(entry + 8, true);
+    }
+    expect(biasOffset).toBeGreaterThan(0);
+    const bytes = golden.slice();
+    new DataView(bytes.buffer).setFloat32(biasOffset, value, true);
+    const error = refusal(withChecksum(bytes));
+    expect(error.message).toContain("outputBias");
   });
 
   it('should refuse uncertainBelow: "x"', () => {

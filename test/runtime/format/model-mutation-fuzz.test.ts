@@ -5,7 +5,7 @@
 // failing closed and explain without throwing. `npm run fuzz` runs 20,000 per model.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { DEMO_ROUTING_MODEL_PATH, ensureDemoModel } from "../../../scripts/demo-model.ts";
+import { DEMO_CANDIDATE_MODEL_PATH, DEMO_ROUTING_MODEL_PATH, ensureDemoModel } from "../../../scripts/demo-model.ts";
 import { checkMutatedModel, mutationsOf } from "./model-mutations.ts";
 
 const MUTATIONS_PER_MODEL = 5000;
@@ -15,7 +15,10 @@ const files: [string, () => string][] = [
   ["the demo moderation model", () => ensureDemoModel()],
   ["the demo routing model", () => (ensureDemoModel(), DEMO_ROUTING_MODEL_PATH)],
   ["the version 1 golden file", () => new URL("../../fixtures/golden/tiny.sluice", import.meta.url).pathname],
+  ["the demo shadow candidate (today's defaults, normalization 2)", () => (ensureDemoModel(), DEMO_CANDIDATE_MODEL_PATH)],
   ["the version 2 golden file", () => new URL("../../fixtures/golden/tiny-v2.sluice", import.meta.url).pathname],
+  ["the version 3 golden file", () => new URL("../../fixtures/golden/tiny-v3.sluice", import.meta.url).pathname],
+  ["the version 3 golden file with normalization 2", () => new URL("../../fixtures/golden/tiny-v3-n2.sluice", import.meta.url).pathname],
 ];
 
 describe.each(files)("mutations of %s", (_name, pathOf) => {
