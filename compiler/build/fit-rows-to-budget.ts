@@ -23,7 +23,9 @@ export function fitRowsToBudget(draft: Draft, ranking: Int32Array, settings: Bui
   const width = rowSpace === "logits" ? draft.outputCount : draft.dims;
   const sizeWith = (keep: number) => {
     const kept = selectRows(ranking, keep);
-    const slots = Uint32Array.from(kept, (row) => draft.slots[row]);
+    // A loop, not Uint32Array.from(kept, f): from() over an iterable first lists every value in a JS array.
+    const slots = new Uint32Array(kept.length);
+    for (let i = 0; i < kept.length; i++) slots[i] = draft.slots[kept[i]];
     const hidden = rowSpace === "hidden";
     return writeModel({
       header: { ...header, precision: settings.precision, rowSpace },

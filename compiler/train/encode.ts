@@ -145,7 +145,11 @@ export function mapToRows(encoded: EncodedExamples, keptSlots: Uint32Array, hash
   const rowOfSlot = new Int32Array(2 ** hashBits).fill(-1);
   for (let row = 0; row < keptSlots.length; row++) rowOfSlot[keptSlots[row]] = row;
   const offsets = new Uint32Array(encoded.count + 1);
-  const features = new Uint32Array(encoded.features.length);
+  // Count first, so the mapped lists are allocated once at their size (no second copy to trim).
+  let kept = 0;
+  const length = encoded.offsets[encoded.count];
+  for (let f = 0; f < length; f++) if (rowOfSlot[encoded.features[f]] >= 0) kept++;
+  const features = new Uint32Array(kept);
   let used = 0;
   for (let i = 0; i < encoded.count; i++) {
     for (let f = encoded.offsets[i]; f < encoded.offsets[i + 1]; f++) {
@@ -154,7 +158,7 @@ export function mapToRows(encoded: EncodedExamples, keptSlots: Uint32Array, hash
     }
     offsets[i + 1] = used;
   }
-  return { ...encoded, offsets, features: features.slice(0, used) };
+  return { ...encoded, offsets, features };
 }
 
 /** Smoothed inverse document frequency, ln((1 + n) / (1 + df)) + 1 (scikit-learn's TfidfTransformer with smooth_idf=True). */
