@@ -127,6 +127,14 @@ describe("what folding leaves alone", () => {
     expect(featuresOf(text).slots).toEqual(featuresOf(text, V1).slots);
   });
 
+  it("reads digits joined by . , : inside a word as a number, not as leetspeak (a3.0a was read as ae.oa, which reads again as two words)", () => {
+    for (const word of ["a3.0a", "v1.2x", "ab3,5cd"]) {
+      expect(wordsOf(word)).toEqual([word]);
+      expect(wordsOf(wordsOf(word)[0])).toEqual([word]);
+    }
+    expect(wordsOf("fr33 m0ney")).toEqual(["free", "money"]); // without a joiner, still leetspeak
+  });
+
   it("shows the original text of a folded feature, and none for a word read as written", () => {
     const { names, sources } = featuresOf("Get frее MONEY f r e e");
     expect(sources[names.indexOf("free")]).toBe("frее");
