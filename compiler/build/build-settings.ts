@@ -73,7 +73,7 @@ export interface SettingSpec<K extends keyof BuildSettings> {
 
 /** The table. Defaults were picked by measurement on the demo data and the SpamAssassin split (see README). */
 export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
-  dims: { flag: "--dims", kind: "int", min: 1, max: 512, default: 24, defaultText: "24; 32 above 16 labels, 48 above 64", description: "width of the feature embeddings (by default sized to the label count)" },
+  dims: { flag: "--dims", kind: "int", min: 1, max: 512, default: 24, defaultText: "24; 32 above 16 labels, 48 above 64; the search halves it when the size budget prunes", description: "width of the feature embeddings (by default sized to the label count)" },
   wordSpan: { flag: "--word-span", kind: "int", min: 1, max: 4, default: 2, description: "longest word n-gram (1 = words only, 2 = words + pairs)" },
   // Off unless the build's search finds 1-4 better on validation (and worth its cost): on the
   // demo topics, the contact form and SpamAssassin 3-4 character n-grams added at most 0.2
@@ -123,7 +123,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   calibrate: { flag: "--calibrate", kind: "boolean", default: true, description: "fit temperature scaling on validation (--no-calibrate to skip)" },
   fingerprint: { flag: "--fingerprint", kind: "boolean", default: true, description: "store a Bloom filter (~1 byte per training text) so eval can warn about overlap with training data (--no-fingerprint leaves it out)" },
   nearDuplicates: { flag: "--near-duplicates", kind: "enum", values: ["together", "apart"], default: "together", description: "together: texts that differ only in case, digits, punctuation or spacing stay on one side of the validation split, so validation is not scored on near-copies of training texts; apart: split them like any other rows" },
-  searchTime: { flag: "--search-time", kind: "seconds", min: 0, max: 86400, default: "auto", defaultText: "auto: 15 s + 10 s per million training tokens, at most 2m", placeholder: "TIME", description: "time the build may spend choosing epochs, learning rate, character n-grams and weighting on the validation split: seconds (30, 30s, 2m), auto (scaled with the data) or 0 (no search: the table's defaults)" },
+  searchTime: { flag: "--search-time", kind: "seconds", min: 0, max: 86400, default: "auto", defaultText: "auto: 15 s + 10 s per million training tokens (at most 2m), or 8 more starting-point runs if longer (at most 10m)", placeholder: "TIME", description: "time the build may spend choosing epochs, learning rate, character n-grams and weighting on the validation split: seconds (30, 30s, 2m), auto (scaled with the data) or 0 (no search: the table's defaults)" },
   maxUs: { flag: "--max-us", kind: "float", min: 0, max: 1e6, default: 0, description: "the build's search skips settings whose compiled model takes longer than this to classify a 300-token validation text (µs, measured on this machine; 0 = no limit)" },
 };
 

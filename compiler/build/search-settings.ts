@@ -41,6 +41,11 @@ export const SEARCH_CHAR_SPAN: [number, number] = [1, 4];
 export const PROBE_FEATURES = 150_000;
 export const PROBE_MIN_EXAMPLES = 500;
 export const PROBE_EPOCHS = 2;
+/** The auto budget is at least the time of this many more starting-point runs (at most AUTO_BUDGET_MAX_SECONDS). */
+export const AUTO_BUDGET_STARTING_POINTS = 8;
+export const AUTO_BUDGET_MAX_SECONDS = 600;
+/** Narrowest rows the search tries when the size budget prunes (see "budget-aware dims" below). */
+export const SEARCH_MIN_DIMS = 12;
 
 export interface SearchCandidate {
   /** What this candidate changed, e.g. "char n-grams 2-4". */
@@ -66,6 +71,9 @@ export interface SearchCandidate {
   diverged: TrainingDivergedError | null;
   /** The search's deadline ended this candidate's training before its early stop. */
   stoppedByTime: boolean;
+  /** Feature rows the draft trained, and how many of them the size budget keeps. */
+  rows: number;
+  rowsKept: number;
 }
 
 export interface SearchReport {
@@ -164,13 +172,13 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   let base: BuildSettings = { ...job.settings };
   if (!explicit.has("dims")) base.dims = dimsForLabels(labels.length);
   const trainTokens = encode(base).train.tokenTotal;
-  const budgetSeconds = job.settings.searchTime === "auto" ? autoSearchSeconds(trainTokens) : job.settings.searchTime;
+  let budgetSeconds = job.settings.searchTime === "auto" ? autoSearchSeconds(trainTokens) : job.settings.searchTime;
   const elapsed = () => (performance.now() - started) / 1000;
   const candidates: SearchCandidate[] = [];
   let stoppedByBudget = false;
 
   const headOf = (settings: BuildSettings): HeadKind => (settings.head === "auto" ? job.head : settings.head);
-  const deadline = started + budgetSeconds * 1000;
+  let deadline = started + budgetSeconds * 1000;
   const run = (name: string, settings: BuildSettings, probe?: { subset: Int32Array; epochs: number }): SearchCandidate => {
     const data = probe ? probeData(settings, probe.subset) : { encoded: encode(settings), subset: undefined };
     const candidate = trainCandidate(name, settings, headOf(settings), data.encoded, job, explicit.has("epochs"), deadline, probe && { subset: data.subset as Int32Array, epochs: probe.epochs });
@@ -194,6 +202,9 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     probeChars.verdict = charsWin ? "probe: won, the search starts from character n-grams" : `probe: lost (needs ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1 over words only)`;
     if (charsWin) base = { ...base, charSpan: SEARCH_CHAR_SPAN };
   }
+  // Under the auto budget the starting point always trains to its early stop (up to
+  // AUTO_BUDGET_MAX_SECONDS): the rest of the budget is measured by it.
+  if (job.settings.searchTime === "auto") deadline = started + Math.max(budgetSeconds, AUTO_BUDGET_MAX_SECONDS) * 1000;
   let best = run("defaults", base);
   // A starting point that diverges: the user's rate is theirs to change (stop and say so);
   // a rate of Sluice's own is halved until training settles.
@@ -203,6 +214,19 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     best = run(`learning rate ${base.learningRate}`, base);
   }
   best.verdict = "starting point";
+  // The auto budget also scales with what this data costs to train: the plan is about
+  // AUTO_BUDGET_STARTING_POINTS more candidates like the starting point, and a corpus whose
+  // starting point alone takes longer than the token rule's budget (language identification with
+  // character n-grams and 106 labels: 54 s against 18 s on the shared machine) would otherwise
+  // never try the candidates that help it most (there the softmax head took validation accuracy
+  // from 0.794 to 0.881 and narrower rows to 0.903: `sluice build` of its train.jsonl with
+  // `--group-field group --search-time 900`, the build's own validation split).
+  if (job.settings.searchTime === "auto") {
+    const tokenRule = budgetSeconds;
+    budgetSeconds = Math.max(budgetSeconds, Math.min(AUTO_BUDGET_MAX_SECONDS, elapsed() + AUTO_BUDGET_STARTING_POINTS * best.seconds));
+    deadline = started + budgetSeconds * 1000;
+    if (budgetSeconds > tokenRule) job.onMessage?.(`search: budget ${budgetSeconds.toFixed(0)} s (the starting point took ${best.seconds.toFixed(1)} s; ${AUTO_BUDGET_STARTING_POINTS} more of it)`);
+  }
   // Classify time of words only, the reference of the speed rule (the probe's when the search starts from characters).
   const wordOnly = best.settings.charSpan[0] === 0 ? best : probeWords;
   let bestSettings = base;
@@ -215,7 +239,7 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     const epochSeconds = best.seconds / Math.max(1, best.epochsRun);
     if (elapsed() + 2 * epochSeconds * costFactor > budgetSeconds) {
       stoppedByBudget = true;
-      candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null, stoppedByTime: false });
+      candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null, stoppedByTime: false, rows: 0, rowsKept: 0 });
       return;
     }
     const candidate = run(name, settings);
@@ -241,6 +265,17 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
   if (!explicit.has("head") && job.head === "tree") consider("softmax head", { head: "softmax" }, 3);
   if (!explicit.has("weighting")) consider(`weighting ${bestSettings.weighting === "tfidf" ? "mean" : "tfidf"}`, { weighting: bestSettings.weighting === "tfidf" ? "mean" : "tfidf" }, 1.2);
+  // Budget-aware dims: when the size budget keeps only part of the trained rows, narrower rows
+  // buy more of them (a row of d int8 values costs about d + 6 bytes). Halve while that wins,
+  // judged like every candidate on validation after pruning to the budget. Rows that store
+  // logits (fewer labels than dims) are as wide as the label count whatever dims is.
+  if (!explicit.has("dims") && storedRowWidth(bestSettings, headOf(bestSettings), labels.length) === bestSettings.dims) {
+    for (let halving = 0; halving < 2 && best.rowsKept < best.rows && Math.round(bestSettings.dims / 2) >= SEARCH_MIN_DIMS; halving++) {
+      const dims = Math.round(bestSettings.dims / 2);
+      consider(`dims ${dims} (the size budget keeps ${best.rowsKept} of ${best.rows} rows)`, { dims }, 0.7);
+      if (bestSettings.dims !== dims) break;
+    }
+  }
   if (!explicit.has("learningRate")) {
     const rate = bestSettings.learningRate;
     // Double while doubling helps (early stopping makes a faster rate cheap to try), else halve once.
@@ -343,6 +378,8 @@ function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, e
     verdict,
     diverged,
     stoppedByTime,
+    rows: draft.slots.length,
+    rowsKept: Math.min(keep, draft.slots.length),
   };
 }
 
@@ -368,11 +405,17 @@ export function describeChoice(report: SearchReport): string {
   return `${c.head} head, epochs ${c.epochs}, learning rate ${c.learningRate}, ${c.weighting} weighting, ${c.charSpan[0] === 0 ? "words only" : `char n-grams ${c.charSpan.join("-")}`}, dims ${c.dims}`;
 }
 
+/** Values a compiled row stores: the logits when the output layer is folded into the rows (fewer outputs than dims), else dims. */
+function storedRowWidth(settings: BuildSettings, head: HeadKind, labelCount: number): number {
+  const outputs = head === "tree" ? labelCount - 1 : labelCount;
+  return settings.foldOutput && head !== "tree" && outputs < settings.dims ? outputs : settings.dims;
+}
+
 /** About how many rows the size budget keeps for these settings (the header and output layer take their share). */
 function rowsWithinBudget(settings: BuildSettings, head: HeadKind, labelCount: number, trainCount: number): number {
   if (settings.maxBytes <= 0) return Infinity;
   const outputs = head === "tree" ? labelCount - 1 : labelCount;
-  const width = settings.foldOutput && head !== "tree" && outputs < settings.dims ? outputs : settings.dims;
+  const width = storedRowWidth(settings, head, labelCount);
   const fixedBytes = 4096 + 64 * labelCount + outputs * settings.dims * (settings.precision === "int8" ? 1 : 4) + (settings.fingerprint ? Math.ceil(trainCount * 1.25) : 0);
   return Math.max(0, Math.floor((settings.maxBytes - fixedBytes) / rowBytes(settings, width)));
 }

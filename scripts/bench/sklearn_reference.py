@@ -1,4 +1,5 @@
-"""The strong linear reference for `npm run bench`: TF-IDF + logistic regression (scikit-learn).
+"""The strong linear reference for `npm run bench`: TF-IDF + logistic regression (scikit-learn;
+the learner is defined once, in sklearn_learners.py, with the suite's).
 
 Run by scripts/bench/comparison.ts with Debian's /usr/bin/python3 (package python3-sklearn,
 installed by `npm run bench:setup`; the bench installs nothing itself):
@@ -26,11 +27,11 @@ import time
 
 import sklearn
 from sklearn.feature_extraction.text import TfidfVectorizer
-from sklearn.linear_model import LogisticRegression
 from sklearn.metrics import accuracy_score, f1_score
 from sklearn.pipeline import make_pipeline
 
 from jsonl_examples import read_jsonl
+from sklearn_learners import iterations_of, make_learner
 
 
 def percentile(sorted_values, fraction):
@@ -51,7 +52,7 @@ def main():
 
     pipeline = make_pipeline(
         TfidfVectorizer(ngram_range=(1, 2), sublinear_tf=True, min_df=2),
-        LogisticRegression(max_iter=1000, C=options["C"]),
+        make_learner("LogisticRegression", options["C"]),
     )
     started = time.perf_counter()
     pipeline.fit(train_texts, train_labels)
@@ -106,7 +107,8 @@ def main():
             "pickleBytes": len(pickled),
             "loadMs": statistics.median(load_ms),
             "C": options["C"],
-            "iterations": int(max(model.n_iter_)),
+            "iterations": iterations_of(model),
+            "solver": model.solver,
             "sklearn": sklearn.__version__,
             "python": platform.python_version(),
         },

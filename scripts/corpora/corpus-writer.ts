@@ -57,6 +57,25 @@ function writeAtomic(path: string, content: string): void {
 }
 
 /**
+ * One JSONL line of a corpus file (`text`, `label`, `group`, in that order).
+ * @example corpusLine({ text: "hi", label: "ham", group: "g1" }) // '{"text":"hi","label":"ham","group":"g1"}'
+ */
+export function corpusLine(row: CorpusRow): string {
+  return JSON.stringify({ text: row.text, label: row.label, group: row.group });
+}
+
+/**
+ * A corpus's rows split as `writeCorpus` splits them, and each part's file content.
+ * @example splitCorpus(definition).train.rows.length
+ */
+export function splitCorpus(corpus: CorpusDefinition): Record<"train" | "test", { rows: CorpusRow[]; content: string }> {
+  const parts = { train: [] as CorpusRow[], test: [] as CorpusRow[] };
+  for (const row of corpus.rows) (isTestGroup(corpus.name, row.group) ? parts.test : parts.train).push(row);
+  const content = (rows: CorpusRow[]) => `${rows.map(corpusLine).join("\n")}\n`;
+  return { train: { rows: parts.train, content: content(parts.train) }, test: { rows: parts.test, content: content(parts.test) } };
+}
+
+/**
  * Splits and writes one corpus under `root/<name>/`; returns its manifest entry.
  * @example writeCorpus("corpora", definition).rows.test // about a fifth of the rows
  */
@@ -73,7 +92,7 @@ export function writeCorpus(root: string, corpus: CorpusDefinition): ManifestEnt
   for (const row of corpus.rows) {
     if (row.text.trim() === "") throw new Error(`${corpus.name}: an empty text in group ${row.group}`);
     const inTest = isTestGroup(corpus.name, row.group);
-    (inTest ? test : train).push(JSON.stringify({ text: row.text, label: row.label, group: row.group }));
+    (inTest ? test : train).push(corpusLine(row));
     (inTest ? testGroups : trainGroups).add(row.group);
     for (const label of Array.isArray(row.label) ? row.label : [row.label]) {
       (inTest ? testLabels : trainLabels).add(label);

@@ -78,6 +78,20 @@ describe("the character n-gram probe", () => {
   });
 });
 
+describe("budget-aware dims", () => {
+  it("tries narrower rows when the size budget prunes rows that store dims values", async () => {
+    const { report } = await build({ examples, settings: settings({ maxBytes: 24_000, foldOutput: false }), explicit: ["hashBits", "searchTime", "maxBytes", "foldOutput"], buildTime: BUILD_TIME });
+    const narrower = report.search?.candidates.find((c) => c.name.startsWith("dims 12"));
+    expect(narrower?.settings.dims).toBe(12);
+    expect(narrower?.rowsKept).toBeLessThan(narrower?.rows ?? 0);
+  });
+
+  it("leaves dims alone when rows store logits (fewer labels than dims), whose width dims does not change", async () => {
+    const { report } = await build({ examples, settings: settings({ maxBytes: 24_000 }), explicit: ["hashBits", "searchTime", "maxBytes"], buildTime: BUILD_TIME });
+    expect(report.search?.candidates.some((c) => c.name.startsWith("dims"))).toBe(false);
+  });
+});
+
 describe("search defaults", () => {
   it("sizes dims to the label count and scales the budget with the data", () => {
     expect(dimsForLabels(2)).toBe(24);
