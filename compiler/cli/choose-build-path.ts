@@ -3,18 +3,25 @@
 // file's bytes alone (short texts cost more per byte than long ones: each example carries
 // fixed overhead). The projection reads the first few MiB of the file, counts examples and
 // words there, scales them to the whole file and prices them with the per-example and
-// per-feature costs measured on this build (scripts/bench/default-build-memory.ts: its 100 MB
-// CSV of 595,579 short texts projects 1,198 MB; the in-memory build measured 1,065 MB). The
-// build goes on disk when the projection exceeds the memory budget: --max-memory, or by
-// default 2 × the file's size + 300 MB.
+// per-feature costs measured on this build (scripts/bench/default-build-memory.ts, forced in
+// memory with --max-memory 64g, 2026-12-04: CSVs of short texts of 10, 25 and 100 MB peaked at
+// 334, 457 and 1,268 MB of RSS and project 334, 490 and 1,268 MB). The build goes on disk when
+// the projection exceeds the memory budget: --max-memory, or by default 2 × the file's size +
+// 300 MB, which in-memory builds of these texts meet up to about 8 MB.
 
 import { closeSync, openSync, readSync, statSync } from "node:fs";
 import type { BuildSettings } from "../build/build-settings.ts";
 
 const SAMPLE_BYTES = 4 * 1024 * 1024;
 const MEGABYTE = 1024 * 1024;
-/** Node, tsx and the compiler's modules before any data (measured RSS of `sluice build --help`, rounded up). */
-export const BASE_BYTES = 160 * MEGABYTE;
+/**
+ * What does not grow with the examples: Node, tsx and the compiler's modules (100 to 120 MB of
+ * RSS before any data), the setting search's drafts over a vocabulary that nears its 2^hashBits
+ * slots early, and the garbage they leave between collections. Fitted to the three builds above:
+ * the per-example and per-feature costs below matched the growth from 25 to 100 MB (1.04×), the
+ * fixed part was 70 MB more than the 160 MB it used to be.
+ */
+export const BASE_BYTES = 230 * MEGABYTE;
 /** The default budget: peak RSS at most 2 × the input plus this. */
 export const BUDGET_MARGIN_BYTES = 300 * MEGABYTE;
 /** Per example held in memory: the text's string header, the example and label objects, CSR offsets, shuffled order. */
