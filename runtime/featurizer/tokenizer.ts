@@ -350,7 +350,6 @@ export class Tokenizer {
     let letters = 0;
     let digits = 0;
     let nonLeetDigits = 0;
-    let digitJoiners = 0; // ". , :" kept between digits: "3.0" is a number, never leetspeak
     let leadingDigits = 0;
     let digitThenLetter = false;
     let longRun = false;
@@ -390,7 +389,6 @@ export class Tokenizer {
         const nextClass = i + 1 < end ? classOf(text.charCodeAt(i + 1)) : -1;
         const joins = cls === APOSTROPHE ? nextClass === LETTER && previousClass === LETTER : nextClass === DIGIT && previousClass === DIGIT;
         if (!joins) break;
-        if (cls === DIGIT_JOINER) digitJoiners++;
         kept = cls === APOSTROPHE ? 0x27 : code;
       } else {
         if (!fold) break;
@@ -439,7 +437,7 @@ export class Tokenizer {
     }
     const keep = this.keepWordChars;
     // Digits stand for letters ("m0ney", "h4x0r", "fr33") only under evasion-rules.ts's conditions.
-    const leet = fold && digits > 0 && nonLeetDigits === 0 && digitJoiners === 0 && (digits < letters || (digits === letters && digits < 3)) &&
+    const leet = fold && digits > 0 && nonLeetDigits === 0 && (digits < letters || (digits === letters && digits < 3)) &&
       (leadingDigits === 0 || (leadingDigits === 1 && letters >= 3)) && (digitThenLetter || endsInRepeatedDigit(chars, charStart, total));
     if (letters === 0) {
       const bucket = Math.min(digits, 5) - 1;
