@@ -25,6 +25,11 @@ export interface BuildInput {
   /** Called as each stage after training starts ("compile", "calibrate", "verify"), so a caller can show it. */
   onStage?: (stage: "compile" | "calibrate" | "verify") => void;
   onMessage?: (message: string) => void;
+  /**
+   * Bytes the setting search may add to memory for a candidate's encoding (the CLI passes its
+   * memory budget minus the projected in-memory build); absent: no limit.
+   */
+  searchMemoryRoomBytes?: number;
   /** Which data fields held the text and the label(s), and the separator of several labels in
    * one cell (recorded so eval, classify, compare and report read data the same way). */
   fields?: { text: string[]; label: string; labelSep?: string };

@@ -48,7 +48,7 @@ export async function build(input: BuildInput): Promise<{ bytes: Uint8Array; rep
   let settings = input.settings;
   const explicit = explicitSettings(input.settings, input.explicit);
   if (input.settings.searchTime !== 0 && validation.length > 0) {
-    const searched = await searchSettings({ train, validation, labels, head, settings: input.settings, explicit, onMessage: input.onMessage });
+    const searched = await searchSettings({ train, validation, labels, head, settings: input.settings, explicit, onMessage: input.onMessage, memoryRoomBytes: input.searchMemoryRoomBytes });
     search = searched.report;
     settings = searched.settings;
     if (search.chosen.head !== head) {

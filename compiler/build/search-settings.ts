@@ -94,7 +94,12 @@ export interface SearchJob {
   settings: BuildSettings;
   explicit: ReadonlySet<keyof BuildSettings>;
   onMessage?: (message: string) => void;
+  /** Bytes a candidate's new encoding may add to memory (see BuildInput.searchMemoryRoomBytes); absent: no limit. */
+  memoryRoomBytes?: number;
 }
+
+/** Memory of an encoded feature while the search holds it (its row id, and its share of the training arrays; the build path's projection uses the same cost). */
+export const SEARCH_BYTES_PER_FEATURE = 12;
 
 /**
  * Embedding width for a label count: 24 serves up to 16 labels (measured on the demo sets and
@@ -200,7 +205,14 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     const charsWin = probeChars.macroF1 > probeWords.macroF1 + SLOW_CANDIDATE_GAIN;
     probeWords.verdict = charsWin ? "probe: lost" : "probe: won, the search starts from words only";
     probeChars.verdict = charsWin ? "probe: won, the search starts from character n-grams" : `probe: lost (needs ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1 over words only)`;
-    if (charsWin) base = { ...base, charSpan: SEARCH_CHAR_SPAN };
+    // Starting from characters encodes all the data with them: only when the memory budget holds it.
+    const charBytes = survey({ ...base, charSpan: SEARCH_CHAR_SPAN }).featureTotal * SEARCH_BYTES_PER_FEATURE;
+    const charsFit = job.memoryRoomBytes === undefined || charBytes <= job.memoryRoomBytes;
+    if (charsWin && !charsFit) {
+      probeChars.verdict = `probe: won, but encoding all the data with it would add about ${Math.round(charBytes / 2 ** 20)} MB, more than the memory budget leaves`;
+      probeWords.verdict = "probe: lost, but the search starts from words only (the memory budget)";
+    }
+    if (charsWin && charsFit) base = { ...base, charSpan: SEARCH_CHAR_SPAN };
   }
   // Under the auto budget the starting point always trains to its early stop (up to
   // AUTO_BUDGET_MAX_SECONDS): the rest of the budget is measured by it.
@@ -259,8 +271,18 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     // The option the probe did not start from, on all the data. Training time follows the
     // feature count: count it (from the encoding, or a survey when it is not encoded yet).
     const other: [number, number] = base.charSpan[0] === 0 ? SEARCH_CHAR_SPAN : [0, 0];
-    const costFactor = featureTotal({ ...bestSettings, charSpan: other }) / Math.max(1, featureTotal(bestSettings));
-    consider(other[0] === 0 ? "words only" : `char n-grams ${other.join("-")}`, { charSpan: other }, costFactor);
+    const otherName = other[0] === 0 ? "words only" : `char n-grams ${other.join("-")}`;
+    const otherFeatures = featureTotal({ ...bestSettings, charSpan: other });
+    const costFactor = otherFeatures / Math.max(1, featureTotal(bestSettings));
+    // Encoding all the data under the other setting adds its features to memory (character
+    // n-grams: some 14 times the words); the build's memory budget must hold them.
+    const addedBytes = encodings.has(JSON.stringify(featurizerSettingsOf({ ...bestSettings, charSpan: other }))) ? 0 : otherFeatures * SEARCH_BYTES_PER_FEATURE;
+    if (job.memoryRoomBytes !== undefined && addedBytes > job.memoryRoomBytes) {
+      const mb = (bytes: number) => `${Math.round(bytes / 2 ** 20)} MB`;
+      candidates.push({ ...best, name: otherName, settings: pickSettings({ ...bestSettings, charSpan: other }, headOf(bestSettings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict: `skipped: its encoding would add about ${mb(addedBytes)}, more than the ${mb(Math.max(0, job.memoryRoomBytes))} the memory budget leaves`, diverged: null, stoppedByTime: false, rows: 0, rowsKept: 0 });
+    } else {
+      consider(otherName, { charSpan: other }, costFactor);
+    }
   }
   // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
   if (!explicit.has("head") && job.head === "tree") consider("softmax head", { head: "softmax" }, 3);

@@ -79,7 +79,9 @@ export async function buildCommand(argv: string[]): Promise<number> {
   } else {
     const examples = await readWithProgress(dataPath, args, fields, quiet, progress);
     progress.stage("preparing: featurizing, leak check, fingerprint");
-    result = await build({ ...common, examples });
+    // The projection is of a words-only build: what the budget leaves over it bounds what the
+    // search may add for a character n-gram encoding of all the data.
+    result = await build({ ...common, examples, searchMemoryRoomBytes: choice.budgetBytes - choice.projectedBytes });
   }
   const { bytes, report } = result;
   progress.done();

@@ -33,6 +33,19 @@ describe("the build's setting search", () => {
     for (const candidate of first.report.search?.candidates ?? []) expect(candidate.verdict).not.toBe("");
   });
 
+  it("tries no character n-gram encoding of all the data that the memory budget cannot hold", async () => {
+    // Room for nothing: the search may still probe characters on its small subsample, but it
+    // neither starts from them nor tries them on all the data.
+    const { report } = await build({ examples, settings: settings(), explicit: ["hashBits", "searchTime"], buildTime: BUILD_TIME, searchMemoryRoomBytes: 0 });
+    expect(report.search?.chosen.charSpan).toEqual([0, 0]);
+    const full = report.search?.candidates.filter((c) => c.settings.charSpan[0] > 0 && !c.name.startsWith("probe")) ?? [];
+    expect(full.length).toBeGreaterThan(0);
+    for (const candidate of full) expect(candidate.verdict).toMatch(/^skipped: its encoding would add about \d+ MB, more than the 0 MB the memory budget leaves$/);
+    // With room, the same search does try them.
+    const roomy = await build({ examples, settings: settings(), explicit: ["hashBits", "searchTime"], buildTime: BUILD_TIME, searchMemoryRoomBytes: 2 ** 40 });
+    expect(roomy.report.search?.candidates.some((c) => c.settings.charSpan[0] > 0 && !c.name.startsWith("probe") && !c.verdict.startsWith("skipped"))).toBe(true);
+  });
+
   it("never changes a setting the user gave", async () => {
     const given = { epochs: 3, learningRate: 0.3, charSpan: [3, 5] as [number, number], weighting: "mean" as const, dims: 12 };
     const { report } = await build({ examples, settings: settings(given), explicit: ["hashBits", "searchTime", "epochs", "learningRate", "charSpan", "weighting", "dims"], buildTime: BUILD_TIME });
