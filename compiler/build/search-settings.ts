@@ -15,26 +15,12 @@
 import { createFeaturizer } from "../../runtime/featurizer/featurizer.ts";
 import type { HeadKind } from "../../runtime/format/model-header.ts";
 import type { LabelledText } from "../evaluate/evaluate.ts";
-import { checkWeights, TrainingDivergedError } from "../train/divergence.ts";
-import { createDraft } from "../train/draft.ts";
-import { buildVocabulary, encodeTexts, inverseDocumentFrequency, keptSlots, mapToRows, surveyTexts, type EncodedExamples, type TextSurvey, type Vocabulary } from "../train/encode.ts";
-import { huffmanTree, treePaths } from "../train/huffman.ts";
-import { createRandom } from "../train/random.ts";
-import { scoreDraft, type DraftScores } from "../train/score-draft.ts";
-import { trainDraft } from "../train/train-draft.ts";
+import { encodeTexts, keptSlots, surveyTexts, type EncodedExamples, type TextSurvey } from "../train/encode.ts";
 import { featurizerSettingsOf } from "./base-header.ts";
-import { rankRows, rowImportance, selectRows, subsetDraft } from "../compile/prune.ts";
-import { rowBytes } from "./fit-rows-to-budget.ts";
-import { candidateMicroseconds, latencyProblem, servingWork, SLOW_CANDIDATE_GAIN } from "./candidate-latency.ts";
+import { latencyProblem, SLOW_CANDIDATE_GAIN } from "./candidate-latency.ts";
+import { pickSettings, storedRowWidth, trainCandidate, type SearchCandidate } from "./search-candidate.ts";
 import type { BuildSettings } from "./build-settings.ts";
 
-/** Longest schedule a candidate trains on when epochs are not given; early stopping ends most runs far sooner. */
-export const SEARCH_MAX_EPOCHS = 30;
-/**
- * Epochs without improvement before a candidate stops. With adaptive rates most candidates
- * peak within a few epochs (suite corpora, scripts/bench/learner-lab.ts), so two are enough.
- */
-export const PATIENCE = 2;
 /** Character n-gram lengths the search tries (inside words, and over unspaced scripts). */
 export const SEARCH_CHAR_SPAN: [number, number] = [1, 4];
 /** The character n-gram probe: a subsample holding about this many word features (at least PROBE_MIN_EXAMPLES examples), PROBE_EPOCHS epochs. */
@@ -46,35 +32,6 @@ export const AUTO_BUDGET_STARTING_POINTS = 8;
 export const AUTO_BUDGET_MAX_SECONDS = 600;
 /** Narrowest rows the search tries when the size budget prunes (see "budget-aware dims" below). */
 export const SEARCH_MIN_DIMS = 12;
-
-export interface SearchCandidate {
-  /** What this candidate changed, e.g. "char n-grams 2-4". */
-  name: string;
-  settings: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims"> & { head: HeadKind };
-  accuracy: number;
-  macroF1: number;
-  loss: number;
-  /** Epoch with the best validation macro-F1 (the epochs the build then trains). */
-  epochs: number;
-  /** Epochs actually run before early stopping. */
-  epochsRun: number;
-  /** CPU µs per classify call of the 300-token validation text, compiled as shipped (candidate-latency.ts; NaN for a probe). */
-  microseconds: number;
-  /**
-   * Serving work per validation text, counted rather than timed so the speed rule gives the same
-   * choice on a busy machine (servingWork in candidate-latency.ts).
-   */
-  workPerText: number;
-  seconds: number;
-  verdict: string;
-  /** Set when this candidate's training diverged. */
-  diverged: TrainingDivergedError | null;
-  /** The search's deadline ended this candidate's training before its early stop. */
-  stoppedByTime: boolean;
-  /** Feature rows the draft trained, and how many of them the size budget keeps. */
-  rows: number;
-  rowsKept: number;
-}
 
 export interface SearchReport {
   budgetSeconds: number;
@@ -97,6 +54,8 @@ export interface SearchJob {
   /** Bytes a candidate's new encoding may add to memory (see BuildInput.searchMemoryRoomBytes); absent: no limit. */
   memoryRoomBytes?: number;
 }
+
+const megabytes = (bytes: number) => `${Math.round(bytes / 2 ** 20)} MB`;
 
 /** Memory of an encoded feature while the search holds it (its row id, and its share of the training arrays; the build path's projection uses the same cost). */
 export const SEARCH_BYTES_PER_FEATURE = 12;
@@ -158,6 +117,9 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     return found;
   };
   const featureTotal = (settings: BuildSettings) => encodings.get(JSON.stringify(featurizerSettingsOf(settings)))?.train.features.length ?? survey(settings).featureTotal;
+  /** Memory that encoding all the training data under `settings` would add: 0 once it is encoded. */
+  const encodingBytes = (settings: BuildSettings) => (encodings.has(JSON.stringify(featurizerSettingsOf(settings))) ? 0 : survey(settings).featureTotal * SEARCH_BYTES_PER_FEATURE);
+  const fitsMemory = (bytes: number) => job.memoryRoomBytes === undefined || bytes <= job.memoryRoomBytes;
   // A probe's data: the subsample encoded alone (example i is subset[i], so training visits the
   // same examples in the same order), with the vocabulary of all the training data, as a
   // probe on the full encoding would have.
@@ -206,10 +168,10 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     probeWords.verdict = charsWin ? "probe: lost" : "probe: won, the search starts from words only";
     probeChars.verdict = charsWin ? "probe: won, the search starts from character n-grams" : `probe: lost (needs ${SLOW_CANDIDATE_GAIN * 100} point of macro-F1 over words only)`;
     // Starting from characters encodes all the data with them: only when the memory budget holds it.
-    const charBytes = survey({ ...base, charSpan: SEARCH_CHAR_SPAN }).featureTotal * SEARCH_BYTES_PER_FEATURE;
-    const charsFit = job.memoryRoomBytes === undefined || charBytes <= job.memoryRoomBytes;
+    const charBytes = encodingBytes({ ...base, charSpan: SEARCH_CHAR_SPAN });
+    const charsFit = fitsMemory(charBytes);
     if (charsWin && !charsFit) {
-      probeChars.verdict = `probe: won, but encoding all the data with it would add about ${Math.round(charBytes / 2 ** 20)} MB, more than the memory budget leaves`;
+      probeChars.verdict = `probe: won, but encoding all the data with it would add about ${megabytes(charBytes)}, more than the memory budget leaves`;
       probeWords.verdict = "probe: lost, but the search starts from words only (the memory budget)";
     }
     if (charsWin && charsFit) base = { ...base, charSpan: SEARCH_CHAR_SPAN };
@@ -242,6 +204,10 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   // Classify time of words only, the reference of the speed rule (the probe's when the search starts from characters).
   const wordOnly = best.settings.charSpan[0] === 0 ? best : probeWords;
   let bestSettings = base;
+  /** Records a candidate that was not trained, and why. */
+  const skip = (name: string, settings: BuildSettings, verdict: string) => {
+    candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict, diverged: null, stoppedByTime: false, rows: 0, rowsKept: 0 });
+  };
   const consider = (name: string, change: Partial<BuildSettings>, costFactor: number) => {
     const settings = { ...bestSettings, ...change };
     // Skip what the remaining budget cannot pay for even two epochs of (estimated from the best
@@ -251,7 +217,14 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     const epochSeconds = best.seconds / Math.max(1, best.epochsRun);
     if (elapsed() + 2 * epochSeconds * costFactor > budgetSeconds) {
       stoppedByBudget = true;
-      candidates.push({ ...best, name, settings: pickSettings(settings, headOf(settings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict: "skipped: the search time budget would be exceeded", diverged: null, stoppedByTime: false, rows: 0, rowsKept: 0 });
+      skip(name, settings, "skipped: the search time budget would be exceeded");
+      return;
+    }
+    // A candidate that featurizes differently encodes all the data anew (character n-grams:
+    // some 14 times the words); the build's memory budget must hold it.
+    const added = encodingBytes(settings);
+    if (!fitsMemory(added)) {
+      skip(name, settings, `skipped: its encoding would add about ${megabytes(added)}, more than the ${megabytes(Math.max(0, job.memoryRoomBytes as number))} the memory budget leaves`);
       return;
     }
     const candidate = run(name, settings);
@@ -271,18 +244,8 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
     // The option the probe did not start from, on all the data. Training time follows the
     // feature count: count it (from the encoding, or a survey when it is not encoded yet).
     const other: [number, number] = base.charSpan[0] === 0 ? SEARCH_CHAR_SPAN : [0, 0];
-    const otherName = other[0] === 0 ? "words only" : `char n-grams ${other.join("-")}`;
-    const otherFeatures = featureTotal({ ...bestSettings, charSpan: other });
-    const costFactor = otherFeatures / Math.max(1, featureTotal(bestSettings));
-    // Encoding all the data under the other setting adds its features to memory (character
-    // n-grams: some 14 times the words); the build's memory budget must hold them.
-    const addedBytes = encodings.has(JSON.stringify(featurizerSettingsOf({ ...bestSettings, charSpan: other }))) ? 0 : otherFeatures * SEARCH_BYTES_PER_FEATURE;
-    if (job.memoryRoomBytes !== undefined && addedBytes > job.memoryRoomBytes) {
-      const mb = (bytes: number) => `${Math.round(bytes / 2 ** 20)} MB`;
-      candidates.push({ ...best, name: otherName, settings: pickSettings({ ...bestSettings, charSpan: other }, headOf(bestSettings)), accuracy: NaN, macroF1: NaN, loss: NaN, epochs: 0, epochsRun: 0, microseconds: NaN, workPerText: NaN, seconds: 0, verdict: `skipped: its encoding would add about ${mb(addedBytes)}, more than the ${mb(Math.max(0, job.memoryRoomBytes))} the memory budget leaves`, diverged: null, stoppedByTime: false, rows: 0, rowsKept: 0 });
-    } else {
-      consider(otherName, { charSpan: other }, costFactor);
-    }
+    const costFactor = featureTotal({ ...bestSettings, charSpan: other }) / Math.max(1, featureTotal(bestSettings));
+    consider(other[0] === 0 ? "words only" : `char n-grams ${other.join("-")}`, { charSpan: other }, costFactor);
   }
   // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
   if (!explicit.has("head") && job.head === "tree") consider("softmax head", { head: "softmax" }, 3);
@@ -320,91 +283,6 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   };
 }
 
-function pickSettings(settings: BuildSettings, head: HeadKind): SearchCandidate["settings"] {
-  return { charSpan: [...settings.charSpan] as [number, number], weighting: settings.weighting, learningRate: settings.learningRate, dims: settings.dims, head };
-}
-
-/** Trains one candidate with early stopping and scores it; a diverged run scores −∞. */
-function trainCandidate(name: string, settings: BuildSettings, head: HeadKind, encoded: { train: EncodedExamples; validation: EncodedExamples; vocabulary?: Vocabulary; labelCounts?: Float64Array }, job: SearchJob, fixedEpochs: boolean, deadline: number, probe?: { subset: Int32Array; epochs: number }): SearchCandidate {
-  const started = performance.now();
-  const vocabulary = encoded.vocabulary ?? buildVocabulary(encoded.train, settings.hashBits, settings.minDocs);
-  const trainRows = mapToRows(encoded.train, vocabulary.slots, settings.hashBits);
-  const validationRows = mapToRows(encoded.validation, vocabulary.slots, settings.hashBits);
-  // A probe's subsample brings the vocabulary and label counts of all the training data.
-  let labelCounts = encoded.labelCounts;
-  if (labelCounts === undefined) {
-    labelCounts = new Float64Array(job.labels.length);
-    for (let i = 0; i < trainRows.labelList.length; i++) labelCounts[trainRows.labelList[i]]++;
-  }
-  const tree = head === "tree" ? huffmanTree(labelCounts) : null;
-  const paths = tree ? treePaths(tree, job.labels.length) : null;
-  const random = createRandom(settings.seed);
-  const draft = createDraft({ head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random, adaptive: settings.adaptiveRates });
-  let best: DraftScores & { epoch: number } = { accuracy: 0, macroF1: -1, loss: Infinity, epoch: 0 };
-  let bestLoss = Infinity;
-  let stale = 0;
-  let epochsRun = 0;
-  let verdict = "";
-  let diverged: TrainingDivergedError | null = null;
-  let stoppedByTime = false;
-  const keep = rowsWithinBudget(settings, head, job.labels.length, job.train.length);
-  try {
-    const epochs = probe ? probe.epochs : fixedEpochs ? settings.epochs : SEARCH_MAX_EPOCHS;
-    trainDraft(draft, trainRows, { epochs, learningRate: settings.learningRate, seed: settings.seed }, {
-      paths,
-      random,
-      subset: probe?.subset,
-      onEpoch: (epoch) => {
-        epochsRun = epoch;
-        checkWeights([draft.rows, draft.outputs, draft.bias], epoch, settings.learningRate);
-        const scores = scoreDraft(draft, validationRows, paths);
-        const better = scores.macroF1 > best.macroF1 || (scores.macroF1 === best.macroF1 && scores.loss < best.loss);
-        if (better) best = { ...scores, epoch };
-        if (better || scores.loss < bestLoss) stale = 0;
-        else stale++;
-        bestLoss = Math.min(bestLoss, scores.loss);
-        if (fixedEpochs || probe) return false;
-        if (stale >= PATIENCE) return true;
-        stoppedByTime = performance.now() > deadline;
-        return stoppedByTime;
-      },
-    });
-    // What ships is pruned to the size budget: a candidate with many more rows (character
-    // n-grams) loses more there. Score the trained draft pruned to the rows the budget keeps and
-    // take the loss off its best epoch's scores (measured: unpruned drafts favoured character
-    // n-grams on SpamAssassin that scored 3 points worse once compiled into 1 MiB).
-    if (keep < draft.slots.length) {
-      const full = scoreDraft(draft, validationRows, paths);
-      const pruned = subsetDraft(draft, selectRows(rankRows(rowImportance(draft)), keep));
-      const prunedScores = scoreDraft(pruned, mapToRows(encoded.validation, pruned.slots, settings.hashBits), paths);
-      best = { ...best, accuracy: best.accuracy - Math.max(0, full.accuracy - prunedScores.accuracy), macroF1: best.macroF1 - Math.max(0, full.macroF1 - prunedScores.macroF1) };
-    }
-  } catch (error) {
-    if (!(error instanceof TrainingDivergedError)) throw error;
-    verdict = `rejected: ${error.message}`;
-    diverged = error;
-    best = { accuracy: NaN, macroF1: -Infinity, loss: Infinity, epoch: 0 };
-  }
-  return {
-    name,
-    settings: pickSettings(settings, head),
-    accuracy: best.accuracy,
-    macroF1: best.macroF1,
-    loss: best.loss,
-    epochs: fixedEpochs ? settings.epochs : best.epoch,
-    epochsRun,
-    // A probe's draft (a few epochs on a subsample) is not what would ship: it is not timed.
-    microseconds: diverged === null && !probe ? candidateMicroseconds(draft, settings, head, keep, job.validation) : NaN,
-    workPerText: servingWork(settings, head, job.labels.length, job.validation),
-    seconds: (performance.now() - started) / 1000,
-    verdict,
-    diverged,
-    stoppedByTime,
-    rows: draft.slots.length,
-    rowsKept: Math.min(keep, draft.slots.length),
-  };
-}
-
 /**
  * Every k-th training example, k chosen so the subsample holds about `features` features but at
  * least `minExamples` examples (all of them for small data): spread over the whole file.
@@ -425,19 +303,4 @@ export function probeSubset(encoded: EncodedExamples, features: number, minExamp
 export function describeChoice(report: SearchReport): string {
   const c = report.chosen;
   return `${c.head} head, epochs ${c.epochs}, learning rate ${c.learningRate}, ${c.weighting} weighting, ${c.charSpan[0] === 0 ? "words only" : `char n-grams ${c.charSpan.join("-")}`}, dims ${c.dims}`;
-}
-
-/** Values a compiled row stores: the logits when the output layer is folded into the rows (fewer outputs than dims), else dims. */
-function storedRowWidth(settings: BuildSettings, head: HeadKind, labelCount: number): number {
-  const outputs = head === "tree" ? labelCount - 1 : labelCount;
-  return settings.foldOutput && head !== "tree" && outputs < settings.dims ? outputs : settings.dims;
-}
-
-/** About how many rows the size budget keeps for these settings (the header and output layer take their share). */
-function rowsWithinBudget(settings: BuildSettings, head: HeadKind, labelCount: number, trainCount: number): number {
-  if (settings.maxBytes <= 0) return Infinity;
-  const outputs = head === "tree" ? labelCount - 1 : labelCount;
-  const width = storedRowWidth(settings, head, labelCount);
-  const fixedBytes = 4096 + 64 * labelCount + outputs * settings.dims * (settings.precision === "int8" ? 1 : 4) + (settings.fingerprint ? Math.ceil(trainCount * 1.25) : 0);
-  return Math.max(0, Math.floor((settings.maxBytes - fixedBytes) / rowBytes(settings, width)));
 }
