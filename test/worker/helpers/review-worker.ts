@@ -1,15 +1,15 @@
 // The Worker in workerd with a real D1 database bound as REVIEWS (Miniflare runs D1 on
-// SQLite), the review loop's migrations applied from migrations/*.sql, plus helpers to read
+// SQLite), the review loop's migrations applied from migrations/*.sql (scripts/review-migrations.ts), plus helpers to read
 // the database back and to find demo texts the live model sends to review.
 
-import { readdirSync, readFileSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import type { MiniflareOptions } from "miniflare";
 import type { D1Database } from "../../../runtime/worker/reviews/d1-types.ts";
 import { demoModel, startWorker, type RunningWorker } from "./worker-fixture.ts";
+import { migrationStatements } from "../../../scripts/review-migrations.ts";
 
 export const REPO = join(import.meta.dirname, "..", "..", "..");
-export const MIGRATIONS = join(REPO, "migrations");
 export const REVIEWER_TOKEN = "reviewer-t0ken-7a1c";
 export const API_TOKEN = "api-t0ken-93bd";
 
@@ -18,16 +18,6 @@ export type D1 = D1Database;
 
 export interface ReviewWorker extends RunningWorker {
   db: D1;
-}
-
-/** The statements of every migration file, in file-name order (comments stripped). */
-export function migrationStatements(): string[] {
-  const statements: string[] = [];
-  for (const file of readdirSync(MIGRATIONS).filter((name) => name.endsWith(".sql")).sort()) {
-    const sql = readFileSync(join(MIGRATIONS, file), "utf8").replace(/--[^\n]*/g, "");
-    for (const statement of sql.split(";")) if (statement.trim() !== "") statements.push(statement.trim());
-  }
-  return statements;
 }
 
 /**
