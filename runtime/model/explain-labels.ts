@@ -30,21 +30,20 @@ export function explainLabels(scored: ScoredFeatures, labelIndexes: number[], fe
   let unknown = 0;
   for (let f = 0; f < buffer.count; f++) {
     const slot = buffer.slots[f];
-    const known = bySlot.get(slot);
-    if (known !== undefined) {
-      known.weight += rowWeights === null ? 1 : rowWeights[known.row];
-      totalWeight += rowWeights === null ? 1 : rowWeights[known.row];
-      known.features.push(f);
-      continue;
+    let group = bySlot.get(slot);
+    if (group === undefined) {
+      const row = index.rowOf(slot);
+      if (row < 0) {
+        unknown++;
+        continue;
+      }
+      group = { row, weight: 0, features: [] };
+      bySlot.set(slot, group);
     }
-    const row = index.rowOf(slot);
-    if (row < 0) {
-      unknown++;
-      continue;
-    }
-    const weight = rowWeights === null ? 1 : rowWeights[row];
+    const weight = rowWeights === null ? 1 : rowWeights[group.row];
+    group.weight += weight;
     totalWeight += weight;
-    bySlot.set(slot, { row, weight, features: [f] });
+    group.features.push(f);
   }
   // Slots whose features read alike (a token "free" and the character 4-gram "free" inside
   // "·free·") are shown as one feature, as a reader sees them: one name, the summed contribution.
