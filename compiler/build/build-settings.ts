@@ -102,7 +102,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   // Off with --search-time 0; the search tries it for the softmax head. Over 5 grouped validation
   // splits of the library passages' training part (learner-lab.ts --splits 5, margin loss): 0.399
   // accuracy / 0.369 macro-F1 at learning rate 0.2 against 0.373 / 0.341 for 32-wide rows and an output layer.
-  linear: { flag: "--linear", kind: "boolean", default: false, defaultText: "chosen (softmax head)", description: "train rows of per-label logits directly (a full-rank linear model: dims becomes the label count, the output layer stays the identity) instead of dims-wide rows and a learned output layer; softmax and sigmoid heads" },
+  linear: { flag: "--linear", kind: "boolean", default: false, defaultText: "chosen for the softmax head, off with --search-time 0", description: "train rows of per-label logits directly (a full-rank linear model: dims becomes the label count, the output layer stays the identity) instead of dims-wide rows and a learned output layer; softmax and sigmoid heads (--no-linear keeps hidden rows)" },
   // The epochs and the rate below are used as they are only with --search-time 0; otherwise the
   // search picks the epochs by early stopping and the rate from 0.25 to 2 (search-settings.ts).
   epochs: { flag: "--epochs", kind: "int", min: 1, max: 1000, default: 5, defaultText: "chosen by early stopping on validation (5 with --search-time 0)", description: "passes over the training data" },
