@@ -11,7 +11,7 @@
 //   and the form with two ("freeeee" → "free") is emitted as an extra feature beside it: people
 //   stretch the letter they sound, which is a single letter in most words and a double in some.
 // Common practice, no source: the readings are the usual leetspeak ones.
-import { LETTER } from "./char-classes.ts";
+import { LETTER, isUnspacedLetter } from "./char-classes.ts";
 import { Murmur3Stream } from "./murmur3.ts";
 
 const LEET_DIGITS = "oi eas tbg"; // the letter each digit 0–9 stands for, " " for none
@@ -71,6 +71,23 @@ export function capRuns(chars: Uint16Array, start: number, end: number): { end: 
     read = runEnd;
   }
   return { end: write, doubled: longRun ? Uint16Array.from(doubled) : null };
+}
+
+/**
+ * Normalization 3: a leetspeak reading in `chars[start..end)` (its digits already letters) read
+ * as a word is: the ". , :" that joined two of its digits dropped ("a3.0a" → "aeoa", which reads
+ * the same again), and each run of one letter shortened to one ("fr33" → "fre", as "free"
+ * reads), but for letters of scripts written without spaces, as in readWord. Returns the new end.
+ */
+export function collapseLeetReading(chars: Uint16Array, start: number, end: number): number {
+  let write = start;
+  for (let read = start; read < end; read++) {
+    const code = chars[read];
+    if (code === 0x2e || code === 0x2c || code === 0x3a) continue; // . , :
+    if (write > start && chars[write - 1] === code && !(code >= 0x0e00 && isUnspacedLetter(code))) continue;
+    chars[write++] = code;
+  }
+  return write;
 }
 
 const stream = new Murmur3Stream();

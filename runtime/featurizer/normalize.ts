@@ -16,10 +16,10 @@
 import { LookalikeFolder, type FoldNotes } from "./fold-lookalikes.ts";
 
 /** The newest rules, which new models record. Bumped whenever the rules (or the tokenizer's) change meaning. */
-export const NORMALIZATION_VERSION = 2;
+export const NORMALIZATION_VERSION = 3;
 
 /** The versions this runtime reads text by. */
-export const NORMALIZATION_VERSIONS: readonly number[] = [1, 2];
+export const NORMALIZATION_VERSIONS: readonly number[] = [1, 2, 3];
 
 const NON_ASCII = /[^\x00-\x7f]/;
 
