@@ -122,6 +122,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     keep = fit;
   }
   let compiled = await compileOrExplain(() => compile(keep), learningRate);
+  if (compiled.fineTuneNote !== null) warnings.push(compiled.fineTuneNote);
   clock.lap("compile");
   input.onStage?.("calibrate");
 

@@ -10,6 +10,11 @@
 // - a run of three or more of one letter becomes one letter ("mooooney" → "money", "sooo" → "so"),
 //   and the form with two ("freeeee" → "free") is emitted as an extra feature beside it: people
 //   stretch the letter they sound, which is a single letter in most words and a double in some.
+// Normalization 3 replaces that last rule: every run of one letter, two included, reads as one
+// letter in every word (readWord; "free" and "freeeee" are both "fre"), since nothing in a
+// stretched word tells which reading was meant, and the wrong one lost the word's pairs; letters
+// of scripts written without spaces keep version 2's rule (a doubled sign is a word there). It
+// also drops the ". , :" between two digits of a leetspeak reading (collapseLeetReading).
 // Common practice, no source: the readings are the usual leetspeak ones.
 import { LETTER, isUnspacedLetter } from "./char-classes.ts";
 import { Murmur3Stream } from "./murmur3.ts";

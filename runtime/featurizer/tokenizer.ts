@@ -57,7 +57,7 @@ export class Tokenizer {
 
   /** Letters of scripts without spaces become one token each (featurizer setting unspacedScripts). */
   private readonly splitUnspaced: boolean;
-  /** The evasion folding rules of normalization 2 (leetspeak, padding, runs, spaced letters). */
+  /** The evasion folding rules of normalization 2 and later (leetspeak, padding, runs, spaced letters). */
   private readonly fold: boolean;
   /**
    * Normalization 3's revisions of those rules (evasion-rules.ts): every run of one letter reads
