@@ -70,6 +70,27 @@ export function pushSlot(out: FeatureBuffer, slot: number): void {
   out.slots[out.count++] = slot;
 }
 
+/**
+ * Grows `out` so that `extra` more features fit (slots, and origins when kept), for loops that
+ * write many features straight into the arrays (the featurizer's tokens and word n-grams:
+ * one check per text instead of one per feature).
+ */
+export function reserveSlots(out: FeatureBuffer, extra: number): void {
+  const needed = out.count + extra;
+  if (needed > out.slots.length) {
+    let size = out.slots.length * 2;
+    while (size < needed) size *= 2;
+    const grown = new Uint32Array(size);
+    grown.set(out.slots.subarray(0, out.count));
+    out.slots = grown;
+  }
+  if (out.origins !== null && 3 * needed > out.origins.length) {
+    const grown = new Int32Array(3 * out.slots.length);
+    grown.set(out.origins);
+    out.origins = grown;
+  }
+}
+
 /** Records the origin of the feature just pushed (call only when `out.origins` is not null). */
 export function pushOrigin(out: FeatureBuffer, kind: number, length: number, first: number, second: number): void {
   let origins = out.origins as Int32Array;

@@ -15,6 +15,7 @@ import {
   WORD_NGRAM_FEATURE,
   pushOrigin,
   pushSlot,
+  reserveSlots,
   type FeatureBuffer,
 } from "./feature-buffer.ts";
 import { deriveFeatureSeeds } from "./feature-seeds.ts";
@@ -237,28 +238,42 @@ export class Featurizer {
     const count = tokens.tokenTotal;
     const hashes = tokens.tokenHashes;
     const kinds = tokens.tokenKinds;
-    const withOrigins = out.origins !== null;
+    const wordSpan = this.settings.wordSpan;
+    // At most two features a token (a URL and its shape), then the word n-grams: room for all
+    // of them once, then written straight into the arrays (this loop runs for every token).
+    reserveSlots(out, 2 * count + Math.max(0, wordSpan - 1) * count);
+    const slots = out.slots;
+    const origins = out.origins;
+    let f = out.count;
     for (let t = 0; t < count; t++) {
-      if (wordsApart && kinds[t] === WORD) continue;
-      pushSlot(out, hashes[t] & mask);
-      if (withOrigins) pushOrigin(out, TOKEN_FEATURE, 0, t, 0);
-      if (kinds[t] === URL) {
-        pushSlot(out, this.anyUrlHash & mask);
-        if (withOrigins) pushOrigin(out, URL_SHAPE_FEATURE, 0, t, 0);
+      const kind = kinds[t];
+      if (wordsApart && kind === WORD) continue;
+      if (origins !== null) setOrigin(origins, f, TOKEN_FEATURE, 0, t);
+      slots[f++] = hashes[t] & mask;
+      if (kind === URL) {
+        if (origins !== null) setOrigin(origins, f, URL_SHAPE_FEATURE, 0, t);
+        slots[f++] = this.anyUrlHash & mask;
       }
     }
-    const wordSpan = this.settings.wordSpan;
     for (let n = 2; n <= wordSpan; n++) {
       const seed = (this.ngramSeed + n) >>> 0;
       for (let t = 0; t + n <= count; t++) {
-        pushSlot(out, murmur3Words(hashes, t, n, seed) & mask);
-        if (withOrigins) pushOrigin(out, WORD_NGRAM_FEATURE, n, t, 0);
+        if (origins !== null) setOrigin(origins, f, WORD_NGRAM_FEATURE, n, t);
+        slots[f++] = murmur3Words(hashes, t, n, seed) & mask;
       }
     }
+    out.count = f;
     if (this.settings.charMin > 0 && !wordsApart) {
       for (let t = 0; t < count; t++) if (kinds[t] === WORD) this.charGrams(t, out);
     }
   }
+}
+
+/** The origin of feature `f` (token and n-gram features: their second position is unused). */
+function setOrigin(origins: Int32Array, f: number, kind: number, length: number, first: number): void {
+  origins[3 * f] = kind | (length << 8);
+  origins[3 * f + 1] = first;
+  origins[3 * f + 2] = 0;
 }
 
 /** The original text of a span of the normalized text, when it differs from `name` (lower-cased), else null. */

@@ -113,15 +113,19 @@ export class Tokenizer {
     this.text = text;
     this.singles.count = 0;
     const length = text.length;
+    const plainChunks = this.plainChunks;
     let i = 0;
     while (i < length && !this.hasMoreText) {
+      if (plainChunks) {
+        i = this.readPlainChunks(text, i, length);
+        if (i >= length) break;
+      }
       const code = text.charCodeAt(i);
       if (code < 0x80 ? code <= 0x20 || code === 0x7f : classOf(code) === SPACE) {
         i++;
         continue;
       }
-      const plainEnd = this.plainChunks ? this.readPlainChunk(text, i, length) : -1;
-      i = plainEnd >= 0 ? plainEnd : this.readChunk(text, i, length);
+      i = this.readChunk(text, i, length);
     }
     if (this.singles.count > 0) this.singles.join(this.withNames);
     this.text = "";
@@ -143,92 +147,110 @@ export class Tokenizer {
   /**
    * Fast path for the most common chunks: one ASCII word (letters and digits, with apostrophes
    * between letters, as in "can't"), then at most one of , . ; : or a run of ? or !, then
-   * whitespace or the end of the text. Returns where the chunk ends, or -1, having changed
-   * nothing, when the chunk needs readChunk (anything else, a URL-like start, or the token
-   * limit). It yields exactly the tokens readChunk would (test/runtime/featurizer/featurizer-fast-path.test.ts).
+   * whitespace or the end of the text. Reads such chunks one after another, with the ASCII
+   * whitespace between them, from `from`; returns where it stopped: the end of the text, or
+   * the start of a chunk it left unread for readChunk (anything else, a URL-like start, the
+   * token limit) or of non-ASCII whitespace. One call reads a run of plain chunks (a call per
+   * chunk measured 1 µs of 15 for a 300-token text). It yields exactly the tokens readChunk
+   * would (test/runtime/featurizer/featurizer-fast-path.test.ts).
    */
-  private readPlainChunk(text: string, start: number, length: number): number {
-    const first = text.charCodeAt(start) | 0x20; // lower-cases ASCII letters
-    const second = text.charCodeAt(start + 1) | 0x20;
-    if ((first === 0x68 && second === 0x74) || (first === 0x77 && second === 0x77)) return -1; // "ht…", "ww…": maybe a URL
-    let h = this.wordSeed | 0;
-    let pending = 0;
-    let digits = 0;
-    let apostrophes = 0;
-    let previous = 0; // the last byte hashed
-    let beforePrevious = 0;
+  private readPlainChunks(text: string, from: number, length: number): number {
+    // Locals instead of fields: they do not change while a text is read.
+    const wordSeed = this.wordSeed | 0;
     const fold = this.fold; // tested first, so normalization 1 pays nothing for the folding checks
-    let i = start;
-    while (i < length) {
-      const code = text.charCodeAt(i);
-      let byte = code < 0x80 ? ASCII_WORD_BYTES[code] : 0;
-      if (byte === 0) {
-        if (code !== 0x27 || previous < 0x61 || i + 1 >= length) break;
-        // An apostrophe joins two letters; a non-ASCII next character is left to readChunk.
-        const next = text.charCodeAt(i + 1);
-        if (next >= 0x80) return -1;
-        if (ASCII_WORD_BYTES[next] < 0x61) break;
-        byte = 0x27;
-        apostrophes++;
-      } else if (byte <= 0x39) {
-        digits++;
+    const foldRevised = this.foldRevised;
+    const keepWordChars = this.keepWordChars;
+    const withNames = this.withNames;
+    const maxTokens = this.maxTokens;
+    let start = from;
+    while (start < length) {
+      const head = text.charCodeAt(start);
+      if (head <= 0x20 || head === 0x7f) {
+        start++;
+        continue;
       }
-      pending |= byte << (((i - start) & 3) << 3);
-      if (((i - start + 1) & 3) === 0) {
-        h = mixBlock(h, pending);
-        pending = 0;
+      if (head >= 0x80) return start;
+      const first = head | 0x20; // lower-cases ASCII letters
+      if ((first === 0x68 || first === 0x77) && (text.charCodeAt(start + 1) | 0x20) === (first === 0x68 ? 0x74 : 0x77)) return start; // "ht…", "ww…": maybe a URL
+      let h = wordSeed;
+      let pending = 0;
+      let digits = 0;
+      let apostrophes = 0;
+      let previous = 0; // the last byte hashed
+      let beforePrevious = 0;
+      let i = start;
+      while (i < length) {
+        const code = text.charCodeAt(i);
+        let byte = code < 0x80 ? ASCII_WORD_BYTES[code] : 0;
+        if (byte === 0) {
+          if (code !== 0x27 || previous < 0x61 || i + 1 >= length) break;
+          // An apostrophe joins two letters; a non-ASCII next character is left to readChunk.
+          const next = text.charCodeAt(i + 1);
+          if (next >= 0x80) return start;
+          if (ASCII_WORD_BYTES[next] < 0x61) break;
+          byte = 0x27;
+          apostrophes++;
+        } else if (byte <= 0x39) {
+          digits++;
+        }
+        pending |= byte << (((i - start) & 3) << 3);
+        if (((i - start + 1) & 3) === 0) {
+          h = mixBlock(h, pending);
+          pending = 0;
+        }
+        // Three of one letter in a row ("freeee"), or under normalization 3 two: the folding reader reads the run.
+        if (fold && byte === previous && byte > 0x39 && (byte === beforePrevious || foldRevised)) return start;
+        beforePrevious = previous;
+        previous = byte;
+        i++;
       }
-      // Three of one letter in a row ("freeee"), or under normalization 3 two: the folding reader reads the run.
-      if (fold && byte === previous && byte > 0x39 && (byte === beforePrevious || this.foldRevised)) return -1;
-      beforePrevious = previous;
-      previous = byte;
-      i++;
-    }
-    const bytes = i - start;
-    if (bytes === 0) return -1;
-    // Letters mixed with digits ("fr33"): the folding reader decides whether they are leetspeak.
-    if (fold && digits > 0 && digits + apostrophes < bytes) return -1;
-    let end = i;
-    let markCode = 0;
-    let markRepeats = 0;
-    if (end < length) {
-      let next = text.charCodeAt(end);
-      if (next === 0x2c || next === 0x2e || next === 0x3b || next === 0x3a) {
-        next = ++end < length ? text.charCodeAt(end) : 0x20;
-      } else if (next === 0x3f || next === 0x21) {
-        markCode = next;
-        const runStart = end;
-        while (end < length && text.charCodeAt(end) === markCode) end++;
-        markRepeats = Math.min(end - runStart, 3);
-        next = end < length ? text.charCodeAt(end) : 0x20;
+      const bytes = i - start;
+      if (bytes === 0) return start;
+      // Letters mixed with digits ("fr33"): the folding reader decides whether they are leetspeak.
+      if (fold && digits > 0 && digits + apostrophes < bytes) return start;
+      let end = i;
+      let markCode = 0;
+      let markRepeats = 0;
+      if (end < length) {
+        let next = text.charCodeAt(end);
+        if (next === 0x2c || next === 0x2e || next === 0x3b || next === 0x3a) {
+          next = ++end < length ? text.charCodeAt(end) : 0x20;
+        } else if (next === 0x3f || next === 0x21) {
+          markCode = next;
+          const runStart = end;
+          while (end < length && text.charCodeAt(end) === markCode) end++;
+          markRepeats = Math.min(end - runStart, 3);
+          next = end < length ? text.charCodeAt(end) : 0x20;
+        }
+        if (!(next <= 0x20 || next === 0x7f)) return start;
       }
-      if (!(next <= 0x20 || next === 0x7f)) return -1;
-    }
-    if (this.tokenTotal + (markCode === 0 ? 1 : 2) > this.maxTokens) return -1;
-    const charStart = this.wordCharTotal;
-    if (this.keepWordChars) {
-      while (this.wordChars.length < charStart + bytes) this.growWordChars();
-      for (let c = 0; c < bytes; c++) {
-        const code = text.charCodeAt(start + c);
-        this.wordChars[charStart + c] = code === 0x27 ? 0x27 : ASCII_WORD_BYTES[code];
+      if (this.tokenTotal + (markCode === 0 ? 1 : 2) > maxTokens) return start;
+      const charStart = this.wordCharTotal;
+      if (keepWordChars) {
+        while (this.wordChars.length < charStart + bytes) this.growWordChars();
+        for (let c = 0; c < bytes; c++) {
+          const code = text.charCodeAt(start + c);
+          this.wordChars[charStart + c] = code === 0x27 ? 0x27 : ASCII_WORD_BYTES[code];
+        }
+        this.wordCharTotal = charStart + bytes;
       }
-      this.wordCharTotal = charStart + bytes;
+      if (digits + apostrophes === bytes) {
+        const bucket = Math.min(digits, 5) - 1;
+        this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket], start, i);
+      } else if (digits >= 3) {
+        this.addToken(CODE, this.codeHash, -1, -1, "[code]", start, i);
+      } else {
+        const name = withNames ? charCodesToString(this.wordChars, charStart, charStart + bytes) : "";
+        const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
+        this.addToken(WORD, hash, charStart, charStart + bytes, name, start, i);
+      }
+      if (markCode !== 0) {
+        const hash = this.markHashes[(markCode === 0x3f ? 0 : 3) + markRepeats - 1];
+        this.addToken(MARK, hash, -1, -1, withNames ? String.fromCharCode(markCode).repeat(markRepeats) : "", i, end);
+      }
+      start = end;
     }
-    if (digits + apostrophes === bytes) {
-      const bucket = Math.min(digits, 5) - 1;
-      this.addToken(NUMBER, this.numberHashes[bucket], -1, -1, NUMBER_NAMES[bucket], start, i);
-    } else if (digits >= 3) {
-      this.addToken(CODE, this.codeHash, -1, -1, "[code]", start, i);
-    } else {
-      const name = this.withNames ? charCodesToString(this.wordChars, charStart, charStart + bytes) : "";
-      const hash = finish((bytes & 3) === 0 ? h : mixTail(h, pending), bytes);
-      this.addToken(WORD, hash, charStart, charStart + bytes, name, start, i);
-    }
-    if (markCode !== 0) {
-      const hash = this.markHashes[(markCode === 0x3f ? 0 : 3) + markRepeats - 1];
-      this.addToken(MARK, hash, -1, -1, this.withNames ? String.fromCharCode(markCode).repeat(markRepeats) : "", i, end);
-    }
-    return end;
+    return start;
   }
 
   /**
