@@ -7,7 +7,7 @@
 // lost, with their folded tokens, so a rule can be judged on why it loses them. The bench's
 // test parts are never read here: they report, this decides.
 //
-//   node --import tsx scripts/bench/evasion-check.ts [--corpora DIR] [--only contact-form,mail-spam]
+//   node --import tsx scripts/bench/evasion-check.ts [--corpora DIR] [--only contact-form,mail-spam,catalog-languages]
 //     [--rate 0.3] [--seeds 5] [--show spacing] [--no-fold]
 //
 // Measurements, not tests.
@@ -50,6 +50,14 @@ function trainingParts(corporaRoot: string): { name: string; rows: Row[]; target
     .map((r) => ({ text: String(r.message), label: String(r.label), group: String(r.id) }))
     .filter((r) => hashShare("sluice-evasion-split-v1", r.group) >= 0.2); // the bench's training part
   out.push({ name: "contact-form", rows: contact, targets: { precision: { spam: 0.99 }, recall: { abusive: 0.9 } } });
+  // Any other single-label corpus of the suite named in --only: its training part, no policy
+  // (what a folding rule costs clean text elsewhere, e.g. language identification).
+  for (const name of option("--only")?.split(",") ?? []) {
+    const file = join(corporaRoot, name, "train.jsonl");
+    if (name === "mail-spam" || name === "contact-form" || !existsSync(file)) continue;
+    const rows = readJsonl(file).filter((r) => typeof r.label === "string").map((r) => ({ text: String(r.text), label: String(r.label), group: String(r.group) }));
+    out.push({ name, rows, targets: { precision: {}, recall: {} } });
+  }
   return out;
 }
 
@@ -119,6 +127,7 @@ for (const part of trainingParts(resolve(option("--corpora") ?? "corpora"))) {
   // validation part, swings from build to build): the spam scores that 25% and 50% of the clean
   // check part's spam reach. Perturbed recall at the same scores shows how far the texts moved.
   const spamIndexes = check.map((r, i) => (r.label === "spam" ? i : -1)).filter((i) => i >= 0);
+  if (spamIndexes.length === 0) spamIndexes.push(0); // no spam label: the fixed-score columns mean nothing there
   const cleanSpamScores = spamIndexes.map((i) => clean.spamScores[i]).sort((a, b) => b - a);
   const fixedPoints = [0.25, 0.5].map((q) => cleanSpamScores[Math.floor(q * cleanSpamScores.length)]);
   const recallAt = (scores: number[], threshold: number) => spamIndexes.filter((i) => scores[i] > threshold).length / spamIndexes.length;
