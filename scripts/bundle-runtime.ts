@@ -9,9 +9,11 @@ import { build } from "esbuild";
  * for normalization 2 (evasion folding): the UTS #39 lookalike table and the folding rules took the
  * bundle from 55,238 B / 20,392 B gzip to 65,151 B / 24,237 B gzip (the table alone is 1,078 B minified).
  * Then to 25 KiB gzip for feature origins (decisions name their drivers from the features they were
- * scored with): 67,458 B / 25,058 B gzip.
+ * scored with): 67,458 B / 25,058 B gzip. Then to 26 KiB gzip for normalization 3, whose revised
+ * rules sit beside version 2's (which its models keep reading by): 68,339 B / 25,538 B gzip before,
+ * 69,081 B / 25,821 B after.
  */
-export const RUNTIME_BUNDLE_CEILING = { raw: 72 * 1024, gzip: 25 * 1024 };
+export const RUNTIME_BUNDLE_CEILING = { raw: 72 * 1024, gzip: 26 * 1024 };
 
 /** Bundles runtime/index.ts and returns its sizes. */
 export async function bundleRuntime(): Promise<{ raw: number; gzip: number; ours: number; code: Uint8Array }> {

@@ -23,6 +23,7 @@ const files: [string, string][] = [
   ["golden tiny-v2.sluice (v2)", new URL("../test/fixtures/golden/tiny-v2.sluice", import.meta.url).pathname],
   ["golden tiny-v3.sluice (v3)", new URL("../test/fixtures/golden/tiny-v3.sluice", import.meta.url).pathname],
   ["golden tiny-v3-n2.sluice (v3, normalization 2)", new URL("../test/fixtures/golden/tiny-v3-n2.sluice", import.meta.url).pathname],
+  ["golden tiny-v3-n3.sluice (v3, normalization 3)", new URL("../test/fixtures/golden/tiny-v3-n3.sluice", import.meta.url).pathname],
 ];
 
 let violations = 0;

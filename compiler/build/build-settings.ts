@@ -39,7 +39,7 @@ export interface BuildSettings {
   maxTokens: number;
   /** Letters of scripts written without spaces (Chinese, Japanese, Thai…) become one token each. */
   unspacedScripts: boolean;
-  /** Fold evasions (lookalike letters, leetspeak, spaced, padded and stretched words): normalization 2 instead of 1. */
+  /** Fold evasions (lookalike letters, leetspeak, spaced, padded and stretched words): the newest normalization (3) instead of 1. */
   foldEvasion: boolean;
   /** Label → precision to reach on validation data (block/route threshold). */
   targetPrecision: Record<string, number>;
@@ -129,7 +129,7 @@ export const BUILD_SETTINGS: { [K in keyof BuildSettings]: SettingSpec<K> } = {
   // Chinese or Thai is one "word" the model has almost never seen.
   unspacedScripts: { flag: "--unspaced-scripts", kind: "boolean", default: true, description: "split scripts written without spaces (Chinese, Japanese, Thai, Lao, Khmer, Myanmar) into one token per letter, so pairs of letters act as words (--no-unspaced-scripts keeps each run as one word)" },
   // On by default: folding maps evasive spellings onto the words the model learned, and the
-  // model records normalization 2, so it always reads text by the rules it was trained with.
+  // model records its normalization (3 today), so it always reads text by the rules it was trained with.
   foldEvasion: { flag: "--fold-evasion", kind: "boolean", default: true, description: "fold evasive spellings before hashing: lookalike letters (UTS #39), leetspeak, spaced or dotted letters, padding and stretched letters, plus [mixed-script] and [hidden-chars] features (--no-fold-evasion reads text as normalization 1)" },
   maxTokens: { flag: "--max-tokens", kind: "int", min: 1, max: 1 << 20, default: 2000, description: "tokens read per text; the rest is ignored and reported" },
   targetPrecision: { flag: "--target-precision", kind: "map", placeholder: "L=P", default: {}, description: "label=P: threshold reaching precision P on validation (repeat or comma-separate)" },

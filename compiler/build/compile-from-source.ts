@@ -124,6 +124,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
     keep = fit;
   }
   let compiled = await compileOrExplain(() => compile(keep), learningRate);
+  if (compiled.fineTuneNote !== null) warnings.push(compiled.fineTuneNote);
   clock.lap("compile");
   input.onStage?.("calibrate");
 

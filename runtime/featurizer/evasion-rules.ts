@@ -10,8 +10,13 @@
 // - a run of three or more of one letter becomes one letter ("mooooney" → "money", "sooo" → "so"),
 //   and the form with two ("freeeee" → "free") is emitted as an extra feature beside it: people
 //   stretch the letter they sound, which is a single letter in most words and a double in some.
+// Normalization 3 replaces that last rule: every run of one letter, two included, reads as one
+// letter in every word (readWord; "free" and "freeeee" are both "fre"), since nothing in a
+// stretched word tells which reading was meant, and the wrong one lost the word's pairs; letters
+// of scripts written without spaces keep version 2's rule (a doubled sign is a word there). It
+// also drops the ". , :" between two digits of a leetspeak reading (collapseLeetReading).
 // Common practice, no source: the readings are the usual leetspeak ones.
-import { LETTER } from "./char-classes.ts";
+import { LETTER, isUnspacedLetter } from "./char-classes.ts";
 import { Murmur3Stream } from "./murmur3.ts";
 
 const LEET_DIGITS = "oi eas tbg"; // the letter each digit 0–9 stands for, " " for none
@@ -71,6 +76,23 @@ export function capRuns(chars: Uint16Array, start: number, end: number): { end: 
     read = runEnd;
   }
   return { end: write, doubled: longRun ? Uint16Array.from(doubled) : null };
+}
+
+/**
+ * Normalization 3: a leetspeak reading in `chars[start..end)` (its digits already letters) read
+ * as a word is: the ". , :" that joined two of its digits dropped ("a3.0a" → "aeoa", which reads
+ * the same again), and each run of one letter shortened to one ("fr33" → "fre", as "free"
+ * reads), but for letters of scripts written without spaces, as in readWord. Returns the new end.
+ */
+export function collapseLeetReading(chars: Uint16Array, start: number, end: number): number {
+  let write = start;
+  for (let read = start; read < end; read++) {
+    const code = chars[read];
+    if (code === 0x2e || code === 0x2c || code === 0x3a) continue; // . , :
+    if (write > start && chars[write - 1] === code && !(code >= 0x0e00 && isUnspacedLetter(code))) continue;
+    chars[write++] = code;
+  }
+  return write;
 }
 
 const stream = new Murmur3Stream();

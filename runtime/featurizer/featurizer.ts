@@ -71,7 +71,7 @@ export class Featurizer {
     this.anyUrlHash = murmur3String("[url]", seeds.shape);
     this.fold = settings.normalization >= 2;
     this.normalizer = new TextNormalizer(settings.normalization);
-    this.tokens = new Tokenizer(seeds, settings.maxTokens, settings.unspacedScripts === true, this.fold);
+    this.tokens = new Tokenizer(seeds, settings.maxTokens, settings.unspacedScripts === true, settings.normalization);
     this.mixedScriptHash = murmur3String("[mixed-script]", seeds.shape);
     this.hiddenCharsHash = murmur3String("[hidden-chars]", seeds.shape);
   }

@@ -7,8 +7,14 @@
 // Version 2 (evasion folding, the default of new models): version 1, with lookalike letters
 // folded to their UTS #39 prototype between NFKC and lower case (fold-lookalikes.ts), and the
 // tokenizer's folding rules on (leetspeak, padding, letter runs, spaced letters: evasion-rules.ts
-// and tokenizer.ts). A model records its version, so a version 1 model reads text exactly as it
-// was trained to.
+// and tokenizer.ts).
+//
+// Version 3 (the default of new models since 2026-12-04): version 2 with three of the
+// tokenizer's folding rules revised (evasion-rules.ts, spaced-letter-runs.ts): every run of one
+// letter reads as one letter ("free", "freeeee" → "fre"), a leetspeak reading drops the ". , :"
+// between its digits, and a run of spaced letters whose gap changes starts again at the letter
+// before the change. A model records its version, so a version 1 or 2 model reads text exactly
+// as it was trained to.
 //
 // toLowerCase stands in for full Unicode case folding: they differ for a handful of
 // characters (final sigma, some Cherokee letters), an accepted gap recorded here.
@@ -16,10 +22,10 @@
 import { LookalikeFolder, type FoldNotes } from "./fold-lookalikes.ts";
 
 /** The newest rules, which new models record. Bumped whenever the rules (or the tokenizer's) change meaning. */
-export const NORMALIZATION_VERSION = 2;
+export const NORMALIZATION_VERSION = 3;
 
 /** The versions this runtime reads text by. */
-export const NORMALIZATION_VERSIONS: readonly number[] = [1, 2];
+export const NORMALIZATION_VERSIONS: readonly number[] = [1, 2, 3];
 
 const NON_ASCII = /[^\x00-\x7f]/;
 

@@ -5,6 +5,7 @@
 // run's first token in the tokenizer's arrays and drops the others. The rest of the word-level
 // rules are pure functions in evasion-rules.ts.
 
+import { isUnspacedLetter } from "./char-classes.ts";
 import { charCodesToString } from "./char-codes-to-string.ts";
 import { lowerAscii } from "./chunk-shapes.ts";
 import { hashCodes } from "./evasion-rules.ts";
@@ -12,7 +13,9 @@ import { hashCodes } from "./evasion-rules.ts";
 /** The tokenizer's token arrays, which a joined run is written into. */
 export interface TokenArrays {
   tokenHashes: Uint32Array;
+  tokenCharStart: Int32Array;
   tokenCharEnd: Int32Array;
+  wordChars: Uint16Array;
   tokenNames: string[];
   tokenTextEnd: number[];
   tokenTotal: number;
@@ -30,16 +33,30 @@ export class SpacedLetterRun {
   private separator = -1;
   private letters = new Uint16Array(64);
 
+  /**
+   * @param revised normalization 3: a joined run reads each run of one letter as one letter, as
+   * words do ("f r e e" → "fre", like "free"); and when two letters one gap apart break a run
+   * because the gap differs ("e-m a i l"), the second one starts the next run ("e", "mail"),
+   * rather than being left alone ("e", "m", "ail").
+   */
   constructor(
     private readonly tokens: TokenArrays,
     private readonly wordSeed: number,
+    private readonly revised = false,
   ) {}
 
   /** A single letter at `at` of `text` was read: it continues the open run, or starts a new one. */
   extend(text: string, at: number, withNames: boolean): void {
     const separator = at > 0 ? text.charCodeAt(at - 1) : -1;
-    const continues = this.count > 0 && at === this.end + 1 && (this.count === 1 || separator === this.separator);
-    if (!continues) {
+    const adjacent = this.count > 0 && at === this.end + 1;
+    const continues = adjacent && (this.count === 1 || separator === this.separator);
+    if (this.revised && adjacent && !continues && this.count === 2) {
+      // The run's second letter and this one make a run of their own, one `separator` apart.
+      this.first = this.tokens.tokenTotal - 1;
+      this.letters[0] = this.letters[1];
+      this.count = 1;
+      this.separator = separator;
+    } else if (!continues) {
       this.join(withNames); // closes the open run, if any
       this.first = this.tokens.tokenTotal;
     } else if (this.count === 1) {
@@ -62,10 +79,25 @@ export class SpacedLetterRun {
     const tokens = this.tokens;
     if (count < 3 || first + count > tokens.tokenTotal) return; // the run's last letter may have been past the token limit
     const last = first + count - 1;
-    tokens.tokenHashes[first] = hashCodes(this.letters, 0, count, this.wordSeed);
+    let letterCount = count;
+    if (this.revised) {
+      letterCount = 1;
+      for (let k = 1; k < count; k++) {
+        const letter = this.letters[k];
+        if (letter !== this.letters[letterCount - 1] || (letter >= 0x0e00 && isUnspacedLetter(letter))) this.letters[letterCount++] = letter;
+      }
+    }
+    tokens.tokenHashes[first] = hashCodes(this.letters, 0, letterCount, this.wordSeed);
     tokens.tokenCharEnd[first] = tokens.tokenCharEnd[last];
+    const charStart = tokens.tokenCharStart[first];
+    if (letterCount < count && tokens.tokenCharEnd[last] - charStart === count) {
+      // The word's characters, when kept (for character n-grams: then the letters lie one after
+      // another), are its shortened letters, in the room its letters took.
+      tokens.wordChars.set(this.letters.subarray(0, letterCount), charStart);
+      tokens.tokenCharEnd[first] = charStart + letterCount;
+    }
     if (withNames) {
-      tokens.tokenNames[first] = charCodesToString(this.letters, 0, count);
+      tokens.tokenNames[first] = charCodesToString(this.letters, 0, letterCount);
       tokens.tokenTextEnd[first] = tokens.tokenTextEnd[last];
     }
     tokens.tokenTotal = first + 1;

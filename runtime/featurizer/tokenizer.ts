@@ -26,7 +26,7 @@ import {
 import { chunkEnd, isEmailAddress, isOpeningBracket, lowerAscii, startsWithAscii, trimTrailingPunctuation, urlHostOffset } from "./chunk-shapes.ts";
 import type { FeatureSeeds } from "./feature-seeds.ts";
 import { Murmur3Stream, finish, mixBlock, mixTail, murmur3String } from "./murmur3.ts";
-import { capRuns, endsInRepeatedDigit, hashCodes, leetLetterOfDigit, paddingEnd, symbolLetter } from "./evasion-rules.ts";
+import { capRuns, collapseLeetReading, endsInRepeatedDigit, hashCodes, leetLetterOfDigit, paddingEnd, symbolLetter } from "./evasion-rules.ts";
 import { SpacedLetterRun } from "./spaced-letter-runs.ts";
 import { ASCII_WORD_BYTES, CODE, EMAIL, MARK, NUMBER, NUMBER_NAMES, URL, WORD } from "./token-kinds.ts";
 
@@ -57,8 +57,15 @@ export class Tokenizer {
 
   /** Letters of scripts without spaces become one token each (featurizer setting unspacedScripts). */
   private readonly splitUnspaced: boolean;
-  /** The evasion folding rules of normalization 2 (leetspeak, padding, runs, spaced letters). */
+  /** The evasion folding rules of normalization 2 and later (leetspeak, padding, runs, spaced letters). */
   private readonly fold: boolean;
+  /**
+   * Normalization 3's revisions of those rules (evasion-rules.ts): every run of one letter reads
+   * as one letter ("free" → "fre", "freeeee" → "fre"), except in scripts written without spaces;
+   * a leetspeak reading drops the ". , :" that joined two digits ("a3.0a" → "aeoa"); a run of
+   * spaced letters whose gap changes starts again at the letter before the change.
+   */
+  private readonly foldRevised: boolean;
 
   /** Names mode only: where each token lies in the text read (for the original span in explanations). */
   tokenTextStart: number[] = [];
@@ -77,17 +84,18 @@ export class Tokenizer {
   private text = "";
   private readonly singles: SpacedLetterRun;
 
-  constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false, fold = false) {
+  constructor(seeds: FeatureSeeds, maxTokens: number, splitUnspaced = false, normalization = 1) {
     this.maxTokens = maxTokens;
     this.splitUnspaced = splitUnspaced;
-    this.fold = fold;
+    this.fold = normalization >= 2;
+    this.foldRevised = normalization >= 3;
     this.wordSeed = seeds.word;
     this.hostSeed = seeds.host;
     this.numberHashes = Uint32Array.from(NUMBER_NAMES, (name) => murmur3String(name, seeds.shape));
     this.codeHash = murmur3String("[code]", seeds.shape);
     this.emailHash = murmur3String("[email]", seeds.shape);
     this.markHashes = Uint32Array.from(["?", "??", "???", "!", "!!", "!!!"], (mark) => murmur3String(mark, this.wordSeed));
-    this.singles = new SpacedLetterRun(this, this.wordSeed);
+    this.singles = new SpacedLetterRun(this, this.wordSeed, this.foldRevised);
   }
 
   /** Set when a token beyond maxTokens was found: the text was cut (and reading stopped). */
@@ -150,6 +158,7 @@ export class Tokenizer {
     // Locals instead of fields: they do not change while a text is read.
     const wordSeed = this.wordSeed | 0;
     const fold = this.fold; // tested first, so normalization 1 pays nothing for the folding checks
+    const foldRevised = this.foldRevised;
     const keepWordChars = this.keepWordChars;
     const withNames = this.withNames;
     const maxTokens = this.maxTokens;
@@ -189,8 +198,8 @@ export class Tokenizer {
           h = mixBlock(h, pending);
           pending = 0;
         }
-        // Three of one letter in a row ("freeee"): the folding reader bounds the run.
-        if (fold && byte === previous && byte === beforePrevious && byte > 0x39) return start;
+        // Three of one letter in a row ("freeee"), or under normalization 3 two: the folding reader reads the run.
+        if (fold && byte === previous && byte > 0x39 && (byte === beforePrevious || foldRevised)) return start;
         beforePrevious = previous;
         previous = byte;
         i++;
@@ -368,6 +377,7 @@ export class Tokenizer {
     let total = this.wordCharTotal;
     const charStart = total;
     const fold = this.fold;
+    const foldRevised = this.foldRevised;
     let letters = 0;
     let digits = 0;
     let nonLeetDigits = 0;
@@ -427,6 +437,11 @@ export class Tokenizer {
         cls = LETTER;
         letters++;
       }
+      if (foldRevised && kept === previousKept && cls === LETTER && !(kept >= 0x0e00 && isUnspacedLetter(kept))) {
+        letters--; // normalization 3: a run of one letter reads as one letter
+        i++;
+        continue;
+      }
       if (total === chars.length) chars = this.growWordChars();
       chars[total++] = kept;
       if (kept < 0x80) {
@@ -473,6 +488,7 @@ export class Tokenizer {
             const letter = leetLetterOfDigit(chars[c]);
             if (letter !== 0) chars[c] = letter;
           }
+          if (foldRevised) total = collapseLeetReading(chars, charStart, total);
         }
         const capped = capRuns(chars, charStart, total);
         const doubled = capped.doubled;

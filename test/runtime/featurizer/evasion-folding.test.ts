@@ -1,8 +1,11 @@
-// The evasion folding rules of normalization 2, through the features they give: each kind of
-// evasion recovers the clean text's features on hand-written cases, numbers, prices, codes,
-// URLs and e-mail addresses read as version 1 reads them, and folding never throws and is
-// idempotent (fast-check, including lone surrogates and combining marks). The readings of
-// leetspeak are common practice, no source.
+// The evasion folding rules of normalizations 2 and 3, through the features they give: each
+// kind of evasion recovers the clean text's features on hand-written cases, numbers, prices,
+// codes, URLs and e-mail addresses read as version 1 reads them, and folding never throws and
+// is idempotent (fast-check, including lone surrogates and combining marks). Version 3 differs
+// from 2 in three rules (every run of one letter reads as one letter, a leetspeak reading drops
+// the ". , :" between its digits, a spaced run starts again where its gap changes); version 2
+// models keep reading text exactly by version 2's rules. The readings of leetspeak are common
+// practice, no source.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { createFeatureBuffer, createFeaturizer, type FeaturizerSettings } from "../../../runtime/featurizer/featurizer.ts";
@@ -10,6 +13,7 @@ import { TextNormalizer } from "../../../runtime/featurizer/normalize.ts";
 
 const V2: FeaturizerSettings = { normalization: 2, wordSpan: 2, charMin: 3, charMax: 4, hashBits: 20, hashSeed: 0, maxTokens: 2000 };
 const V1: FeaturizerSettings = { ...V2, normalization: 1 };
+const V3: FeaturizerSettings = { ...V2, normalization: 3 };
 
 function featuresOf(text: string, settings = V2): { names: string[]; slots: number[]; sources: (string | null)[] } {
   const buffer = createFeatureBuffer(16, true);
@@ -17,17 +21,17 @@ function featuresOf(text: string, settings = V2): { names: string[]; slots: numb
   return { names: [...(buffer.names as string[])], slots: Array.from(buffer.slots.subarray(0, buffer.count)), sources: [...(buffer.sources as (string | null)[])] };
 }
 
-/** The words (unigram names) of a text under normalization 2. */
-function wordsOf(text: string): string[] {
+/** The words (unigram names) of a text under normalization 2 (or `settings`'). */
+function wordsOf(text: string, settings = V2): string[] {
   const buffer = createFeatureBuffer(16, true);
-  createFeaturizer({ ...V2, wordSpan: 1, charMin: 0, charMax: 0 }).featurize(text, buffer);
+  createFeaturizer({ ...settings, wordSpan: 1, charMin: 0, charMax: 0 }).featurize(text, buffer);
   return [...(buffer.names as string[])];
 }
 
 /** Every feature slot of the clean text is among the perturbed text's (which may add evidence features). */
-function expectRecovers(perturbed: string, clean: string, extra: string[] = []): void {
-  const got = featuresOf(perturbed);
-  const want = featuresOf(clean);
+function expectRecoversUnder(perturbed: string, clean: string, extra: string[], settings: FeaturizerSettings): void {
+  const got = featuresOf(perturbed, settings);
+  const want = featuresOf(clean, settings);
   // Folding appends its own features after the text's: drop the last occurrence of each.
   for (const name of extra) {
     const at = got.names.lastIndexOf(name);
@@ -39,7 +43,12 @@ function expectRecovers(perturbed: string, clean: string, extra: string[] = []):
   expect(got.slots, perturbed).toEqual(want.slots);
 }
 
-describe("each kind of evasion recovers the clean text's features", () => {
+describe.each([
+  ["normalization 2", V2],
+  ["normalization 3", V3],
+])("under %s, each kind of evasion recovers the clean text's features", (_, settings) => {
+  const expectRecovers = (perturbed: string, clean: string, extra: string[] = []) => expectRecoversUnder(perturbed, clean, extra, settings);
+
   it.each([
     ["frее mоney", "free money"], // Cyrillic е (U+0435) and о (U+043E)
     ["FRЕЕ МОNЕY", "FREE MONEY"], // Cyrillic Е, М, О
@@ -74,13 +83,6 @@ describe("each kind of evasion recovers the clean text's features", () => {
     expectRecovers(perturbed, clean);
   });
 
-  it("runs of one letter: the one-letter form is the word, the two-letter form an extra feature", () => {
-    expectRecovers("mooooney nooow", "money now", ["mooney", "noow"]);
-    expect(wordsOf("freeeeee")).toEqual(["fre", "free"]);
-    expect(wordsOf("FREEEEE")).toEqual(["fre", "free"]);
-    expect(wordsOf("soooo good")).toEqual(["so", "good", "soo"]);
-  });
-
   it.each([
     ["fr\u200Bee mo\u200Dney", "free money"],
     ["cl\u00ADick h\u2060ere", "click here"], // soft hyphen, word joiner
@@ -91,6 +93,36 @@ describe("each kind of evasion recovers the clean text's features", () => {
 
   it("mixed: several kinds in one text", () => {
     expectRecovers("FR33 m\u043en\u200Bey c l i c k h*ere", "free money click here", ["[mixed-script]", "[hidden-chars]"]);
+  });
+});
+
+describe("stretched, spaced and leetspeak words under normalization 2", () => {
+  it("runs of one letter: the one-letter form is the word, the two-letter form an extra feature", () => {
+    expectRecoversUnder("mooooney nooow", "money now", ["mooney", "noow"], V2);
+    expect(wordsOf("freeeeee")).toEqual(["fre", "free"]);
+    expect(wordsOf("FREEEEE")).toEqual(["fre", "free"]);
+    expect(wordsOf("soooo good")).toEqual(["so", "good", "soo"]);
+  });
+});
+
+describe("what normalization 3 reads differently", () => {
+  it("runs of one letter: every run reads as one letter, so a stretched word and its pairs are the clean word's", () => {
+    expectRecoversUnder("a freeeee gift, mooooney nooow", "a free gift, money now", [], V3);
+    expectRecoversUnder("WIIIINNER seleeeected", "winner selected", [], V3);
+    expect(wordsOf("free freeeeee FREE fre", V3)).toEqual(["fre", "fre", "fre", "fre"]);
+    expect(wordsOf("soooo good", V3)).toEqual(["so", "god"]); // an accepted collision: "good" and "god" are one word
+  });
+
+  it("spaced letters: a run whose gap changes starts again at the letter before the change", () => {
+    expectRecoversUnder("YOUR E-M A I L", "your e-mail", [], V3);
+    expect(wordsOf("e-m a i l", V3)).toEqual(["e", "mail"]);
+    expect(wordsOf("e-m a i l")).toEqual(["e", "m", "ail"]); // normalization 2, kept as it was
+  });
+
+  it("leetspeak: the . , : between two digits of a leetspeak word is dropped", () => {
+    expect(wordsOf("a3.0a", V3)).toEqual(["aeoa"]);
+    expect(wordsOf("a3.0a")).toEqual(["ae.oa"]); // normalization 2, kept as it was
+    expect(wordsOf("4.99 3.0 v2.0", V3)).toEqual(wordsOf("4.99 3.0 v2.0", V1));
   });
 });
 
@@ -118,6 +150,17 @@ describe("the evidence features", () => {
 describe("what folding leaves alone", () => {
   it.each([
     ["prices and numbers", "$4.99 for 1000 items, 42.50 EUR, 3 days"],
+    ["codes and ordinals", "order A12345 #B20417 x9y8z7 sent on the 14th at 10am, 2nd try"],
+    ["product names", "mp3 win10 covid19 h2o b2b 4x4"],
+    ["URLs and e-mail addresses", "visit https://fr33.example.com/p?q=1 or www.m0ney.example, mail b0b@example.com"],
+    ["ordinary words without a doubled letter", "I am a customer and my parcel is late; please refund it."],
+    ["words with one letter", "a b"],
+  ])("%s: normalization 3 gives the same features as version 1", (_, text) => {
+    expect(featuresOf(text, V3).slots).toEqual(featuresOf(text, V1).slots);
+  });
+
+  it.each([
+    ["prices and numbers", "$4.99 for 1000 items, 42.50 EUR, 3 days"],
     ["codes and ordinals", "order A12345 #B20417 x9y8z7 shipped on the 14th at 10am, 2nd try"],
     ["product names", "mp3 win10 covid19 h2o b2b 4x4"],
     ["URLs and e-mail addresses", "see https://fr33.example.com/p?q=1 or www.m0ney.example, mail b0b@example.com"],
@@ -138,9 +181,12 @@ describe("what folding leaves alone", () => {
 
 const TRICKY = ["a", "e", "o", "f", "r", "E", "0", "3", "1", "2", " ", "  ", ".", "-", "*", "_", "@", "$", "!", "€", "'", "\u200b", "\u202e", "\u00ad", "е", "о", "Е", "р", "ꓑ", "\u0301", "\ud800", "\udc00", "👍", "\u200d", "ﬁ", "Ｆ", "\u03a3", "İ", "http://", "x.com", "a@b.co", "ノ", "१"];
 
-describe("folding", () => {
+describe.each([
+  ["normalization 2", V2],
+  ["normalization 3", V3],
+])("folding under %s", (_, settings) => {
   it("never throws on any string, including lone surrogates and combining marks", () => {
-    const featurizer = createFeaturizer(V2);
+    const featurizer = createFeaturizer(settings);
     const named = createFeatureBuffer(16, true);
     const plain = createFeatureBuffer(16);
     fc.assert(
@@ -154,23 +200,22 @@ describe("folding", () => {
       { numRuns: 3000 },
     );
   });
+});
 
+describe("idempotence under normalization 3", () => {
+  // Normalization 2 keeps a known gap, frozen with its rules (its models must read as they were
+  // trained): a leetspeak reading keeps a ". , :" that joined two digits ("a3.0a" reads as
+  // "ae.oa"), and that word read again splits at the dot. Normalization 3 drops it.
   it("is idempotent: normalizing again, or reading a folded word again, changes nothing", () => {
-    const normalizer = new TextNormalizer(2);
+    const normalizer = new TextNormalizer(3);
     fc.assert(
       fc.property(fc.oneof(fc.string({ unit: "grapheme", maxLength: 40 }), fc.array(fc.constantFrom(...TRICKY), { maxLength: 30 }).map((p) => p.join(""))), (text) => {
         const once = normalizer.normalize(text);
         expect(normalizer.normalize(once)).toBe(once);
-        for (const word of wordsOf(text)) {
+        for (const word of wordsOf(text, V3)) {
           if (word.startsWith("[") || /\s/.test(word)) continue;
-          // Known and left as it is: a leetspeak reading keeps a ". , :" that joined two digits
-          // ("a3.0a" reads as "ae.oa"), and that word read again splits at the dot. Reading such
-          // digits as a number instead changes the features of these words under normalization 2
-          // (it moved the mail-spam suite test by 0.8 points through the setting search), so it
-          // waits for a normalization bump with its golden file.
-          if (/[^0-9][.,:][^0-9]/.test(word)) continue;
           // Up to NFKC: a format character the tokenizer drops ("a\u00AD\u0301") can leave a letter and its mark uncomposed.
-          expect(wordsOf(word)[0], word).toBe(word.normalize("NFKC"));
+          expect(wordsOf(word, V3)[0], word).toBe(word.normalize("NFKC"));
         }
       }),
       { numRuns: 2000 },

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createFeatureBuffer, createFeaturizer, type FeaturizerSettings } from "../../../runtime/index.ts";
 import { COMPATIBILITY_DATE } from "../../worker/helpers/worker-fixture.ts";
 
-const SETTINGS: FeaturizerSettings = { normalization: 2, wordSpan: 2, charMin: 3, charMax: 4, hashBits: 20, hashSeed: 11, maxTokens: 2000 };
+const SETTINGS: FeaturizerSettings = { normalization: 3, wordSpan: 2, charMin: 3, charMax: 4, hashBits: 20, hashSeed: 11, maxTokens: 2000 };
 const TEXTS = [
   "frее mоney now", "FRЕЕ МОNЕY", "fr33 m0ney n0w h4x0r", "f r e e money", "f.r.e.e m-o-n-e-y", "freeeeee mooooney",
   "fr\u200Bee mo\u200Dney", "cl\u00ADick h\u2060ere fr\u202Eee", "fr*ee mo_ney", "$ex ca$h h@ck sh!t fr€€", "ꓑayPal 𐐽ash Ƽale",

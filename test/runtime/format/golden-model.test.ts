@@ -210,7 +210,44 @@ describe("the version 3 golden model file with normalization 2 (evasion folding)
   });
 });
 
-describe("older files under the normalization 2 runtime", () => {
+const bytesV3n3 = new Uint8Array(readFileSync(new URL("../../fixtures/golden/tiny-v3-n3.sluice", import.meta.url)));
+
+describe("the version 3 golden model file with normalization 3 (runs of one letter read as one)", () => {
+  it("records normalization 3 in its featurizer settings", () => {
+    const view = new DataView(bytesV3n3.buffer, bytesV3n3.byteOffset, bytesV3n3.byteLength);
+    expect(view.getUint16(8, true)).toBe(3);
+    const header = unpack(bytesV3n3.subarray(16, 16 + view.getUint32(12, true))) as Record<string, any>;
+    expect(header.featurizer).toEqual({ normalization: 3, wordSpan: 2, charMin: 0, charMax: 0, hashBits: 12, hashSeed: 0, maxTokens: 2000, unspacedScripts: true });
+  });
+
+  it("scores texts exactly as when it was recorded, evasive spellings as the clean text", () => {
+    expect(bytesV3n3.length).toBe(1716);
+    expect(crc32(bytesV3n3, 0, bytesV3n3.length - 4)).toBe(new DataView(bytesV3n3.buffer, bytesV3n3.byteOffset).getUint32(bytesV3n3.length - 4, true));
+    const model = loadModel(bytesV3n3);
+    expect(model.meta.contentId).toBe("91a97d9f");
+    expect(Array.from(model.score("refund my parcel").scores)).toEqual([0.22200025618076324, 0.777999758720398]);
+    // Stretched, spaced, dotted and leetspeak words: the words the model knows, doubled letters read as one.
+    const clean = [0.9997060894966125, 0.00029389309929683805];
+    for (const text of ["my account was billed twice", "my acount was biled twice", "my accoooount was billlled twice", "my a c c o u n t was b.i.l.l.e.d twice", "my acc0unt was billed twice"]) {
+      expect(Array.from(model.score(text).scores), text).toEqual(clean);
+    }
+  });
+
+  it("explains a word read with a shortened run with the original text it came from", () => {
+    const features = loadModel(bytesV3n3).explain("my accoooount was billed", { top: 1, features: 20 }).labels[0].features;
+    expect(features.find((f) => f.feature === "acount")?.foldedFrom).toEqual(["accoooount"]);
+    expect(features.find((f) => f.feature === "my")?.foldedFrom).toBeUndefined();
+  });
+});
+
+describe("older files under the normalization 3 runtime", () => {
+  it("keep reading text by normalization 2: a doubled letter stays two letters there", () => {
+    const model = loadModel(bytesV3n2);
+    expect(model.meta.featurizer.normalization).toBe(2);
+    expect(Array.from(model.score("refund my parrcel").scores)).not.toEqual(Array.from(model.score("refund my parcel").scores));
+    expect(Array.from(model.score("refund my parrcel").scores)).toEqual([0.9156292080879211, 0.08437078446149826]);
+  });
+
   it("keep reading text by normalization 1: no folding, exactly as they were built", () => {
     // tiny-v3.sluice records normalization 1: the leetspeak word is not "refund" there.
     const model = loadModel(bytesV3);

@@ -15,10 +15,11 @@ const files: [string, () => string][] = [
   ["the demo moderation model", () => ensureDemoModel()],
   ["the demo routing model", () => (ensureDemoModel(), DEMO_ROUTING_MODEL_PATH)],
   ["the version 1 golden file", () => new URL("../../fixtures/golden/tiny.sluice", import.meta.url).pathname],
-  ["the demo shadow candidate (today's defaults, normalization 2)", () => (ensureDemoModel(), DEMO_CANDIDATE_MODEL_PATH)],
+  ["the demo shadow candidate (today's defaults, normalization 3)", () => (ensureDemoModel(), DEMO_CANDIDATE_MODEL_PATH)],
   ["the version 2 golden file", () => new URL("../../fixtures/golden/tiny-v2.sluice", import.meta.url).pathname],
   ["the version 3 golden file", () => new URL("../../fixtures/golden/tiny-v3.sluice", import.meta.url).pathname],
   ["the version 3 golden file with normalization 2", () => new URL("../../fixtures/golden/tiny-v3-n2.sluice", import.meta.url).pathname],
+  ["the version 3 golden file with normalization 3", () => new URL("../../fixtures/golden/tiny-v3-n3.sluice", import.meta.url).pathname],
 ];
 
 describe.each(files)("mutations of %s", (_name, pathOf) => {

@@ -1,8 +1,8 @@
 // What a reviewer is shown of a stored item: the n-grams that pushed its top labels, and for a
-// model that folds evasive spellings (normalization 2) the text each folded one was read from.
+// model that folds evasive spellings (normalization 2 and later) the text each folded one was read from.
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { loadModel } from "../../../runtime/index.ts";
+import { loadModel, NORMALIZATION_VERSION } from "../../../runtime/index.ts";
 import { reviewItemView } from "../../../runtime/worker/reviews/review-item-view.ts";
 import type { ReviewRow } from "../../../runtime/worker/reviews/review-queue.ts";
 
@@ -17,7 +17,7 @@ function row(text: string): ReviewRow {
 
 describe("a review item's drivers", () => {
   it("should say which written spans a folded feature came from (Cyrillic letters read as Latin)", () => {
-    expect(candidate.meta.featurizer.normalization).toBe(2);
+    expect(candidate.meta.featurizer.normalization).toBe(NORMALIZATION_VERSION);
     const text = "Get frее cаsh now"; // Cyrillic е in "free", Cyrillic а in "cash"
     const view = reviewItemView(row(text), candidate, true);
     const features = (view.drivers ?? []).flatMap((d) => d.features);
