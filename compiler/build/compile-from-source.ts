@@ -25,6 +25,7 @@ import { contentsOf } from "./draft-contents.ts";
 import { fitRowsToBudget, rowBytes } from "./fit-rows-to-budget.ts";
 import { verifyRoundTrip } from "./verify-round-trip.ts";
 import { explicitSettings } from "./explicit-settings.ts";
+import { withLinearDims } from "./linear-dims.ts";
 import { checkWeights, TrainingDivergedError } from "../train/divergence.ts";
 import type { Draft } from "../train/draft.ts";
 import type { TrainResult } from "../train/train-draft.ts";
@@ -64,7 +65,8 @@ function measureDraft(draft: Draft, header: ReturnType<typeof baseHeader>, valid
 export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint8Array; report: BuildReport }> {
   const { source, labels, head, headReason, validation, featurizerSettings, warnings } = job;
   let { input } = job;
-  let { settings } = input;
+  let settings = withLinearDims(input.settings, head, labels.length);
+  if (settings !== input.settings) input = { ...input, settings };
   const clock = stageClock(job.prepareSeconds ?? 0);
   const say = (message: string) => input.onMessage?.(message);
   const labelIndex = new Map(labels.map((label, i) => [label, i]));
@@ -82,7 +84,7 @@ export async function compileFromSource(job: SourceBuild): Promise<{ bytes: Uint
   let trained: TrainResult;
   for (let attempt = 0; ; attempt++) {
     const random = createRandom(settings.seed);
-    draft = createDraft({ head, labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights, tree, random, shared: settings.threads > 1, adaptive: settings.adaptiveRates });
+    draft = createDraft({ head, labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights, tree, random, shared: settings.threads > 1, adaptive: settings.adaptiveRates, loss: settings.loss, linear: settings.linear });
     try {
       trained = await source.train(draft, { epochs: settings.epochs, learningRate, seed: settings.seed }, { paths, trainRows: true, threads: settings.threads, random, onProgress: (p) => input.onProgress?.("train", p) });
       checkWeights([draft.rows, draft.outputs, draft.bias], settings.epochs, learningRate);

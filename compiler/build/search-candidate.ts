@@ -26,7 +26,7 @@ export const PATIENCE = 2;
 export interface SearchCandidate {
   /** What this candidate changed, e.g. "char n-grams 2-4". */
   name: string;
-  settings: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims"> & { head: HeadKind };
+  settings: Pick<BuildSettings, "charSpan" | "weighting" | "learningRate" | "dims" | "loss" | "linear"> & { head: HeadKind };
   accuracy: number;
   macroF1: number;
   loss: number;
@@ -60,7 +60,7 @@ export interface CandidateData {
 }
 
 export function pickSettings(settings: BuildSettings, head: HeadKind): SearchCandidate["settings"] {
-  return { charSpan: [...settings.charSpan] as [number, number], weighting: settings.weighting, learningRate: settings.learningRate, dims: settings.dims, head };
+  return { charSpan: [...settings.charSpan] as [number, number], weighting: settings.weighting, learningRate: settings.learningRate, dims: settings.dims, loss: settings.loss, linear: settings.linear, head };
 }
 
 /** Trains one candidate with early stopping and scores it; a diverged run scores −∞. */
@@ -78,7 +78,7 @@ export function trainCandidate(name: string, settings: BuildSettings, head: Head
   const tree = head === "tree" ? huffmanTree(labelCounts) : null;
   const paths = tree ? treePaths(tree, job.labels.length) : null;
   const random = createRandom(settings.seed);
-  const draft = createDraft({ head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random, adaptive: settings.adaptiveRates });
+  const draft = createDraft({ head, labels: job.labels, dims: settings.dims, slots: vocabulary.slots, documentFrequency: vocabulary.documentFrequency, rowWeights: settings.weighting === "tfidf" ? inverseDocumentFrequency(vocabulary) : null, tree, random, adaptive: settings.adaptiveRates, loss: settings.loss, linear: settings.linear });
   let best: DraftScores & { epoch: number } = { accuracy: 0, macroF1: -1, loss: Infinity, epoch: 0 };
   let bestLoss = Infinity;
   let stale = 0;

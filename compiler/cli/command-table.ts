@@ -77,10 +77,13 @@ function outputFile(defaultFile: string, description: string): OptionTable {
   return { "--out": { value: "file", default: defaultFile, description }, "--force": { description: "replace the output file if it exists" } };
 }
 
-/** The flag spelling of a build setting, as shown in help (`--[no-]calibrate` for an on-by-default switch). */
+/**
+ * The flag spelling of a build setting, as shown in help (`--[no-]calibrate` for an on-by-default
+ * switch, and for one the build's search may turn on, so that `--no-linear` can forbid it).
+ */
 function settingOption(spec: SettingSpec<keyof BuildSettings>): OptionSpec {
   const placeholder: Record<string, string> = { int: "N", float: "X", span: "A-B", size: "SIZE", map: "L=X", actions: "L=ACTION", seconds: "TIME" };
-  if (spec.kind === "boolean") return { negatable: spec.default === true, description: spec.description, default: spec.default === true ? "on" : "off" };
+  if (spec.kind === "boolean") return { negatable: spec.default === true || spec.defaultText !== undefined, description: spec.description, default: spec.defaultText ?? (spec.default === true ? "on" : "off") };
   return {
     value: spec.kind === "enum" ? (spec.values ?? []).join("|") : (spec.placeholder ?? placeholder[spec.kind] ?? "X"),
     values: spec.kind === "enum" ? spec.values : undefined,

@@ -24,7 +24,24 @@ export interface Draft {
   tree: Int32Array | null;
   /** Summed squared gradients per row, output row and bias (adaptive learning rates), else null. */
   adaptive: AdaptiveState | null;
+  /** What the softmax head's steps minimize (see SoftmaxLoss); the other heads ignore it. */
+  loss: SoftmaxLoss;
+  /**
+   * The output layer is the identity and is never trained (dims = outputCount): each row holds
+   * its feature's per-label logits, a full-rank linear model like logistic regression or a
+   * linear SVM fits, with no narrow hidden layer in between.
+   */
+  linear: boolean;
 }
+
+/**
+ * "logistic": the negative log-likelihood of the softmax. "margin": the multiclass hinge loss
+ * max(0, 1 + max_{k≠y} z_k − z_y) (Crammer and Singer 2001, "On the algorithmic implementation of
+ * multiclass kernel-based vector machines"), which stops pushing an example once its label leads
+ * by a margin of 1, and so spends the rows on the examples still misread. Serving is unchanged:
+ * the runtime's softmax of the same logits, which temperature scaling then calibrates.
+ */
+export type SoftmaxLoss = "logistic" | "margin";
 
 /** Row-wise Adagrad accumulators: one float per feature row, per output row and per bias. */
 export interface AdaptiveState {
@@ -49,6 +66,9 @@ export function createDraft(options: {
   shared?: boolean;
   /** Per-row adaptive learning rates (row-wise Adagrad, see steps.ts). */
   adaptive?: boolean;
+  loss?: SoftmaxLoss;
+  /** Identity output layer, rows of logits (see Draft.linear); needs dims = the output count. */
+  linear?: boolean;
 }): Draft {
   const { dims, slots, random } = options;
   const outputCount = options.head === "tree" ? options.labels.length - 1 : options.labels.length;
@@ -57,6 +77,11 @@ export function createDraft(options: {
   const rows = allocate(slots.length * dims);
   const bound = 1 / dims;
   for (let i = 0; i < rows.length; i++) rows[i] = (random.next() * 2 - 1) * bound;
+  const outputs = allocate(outputCount * dims);
+  if (options.linear) {
+    if (dims !== outputCount) throw new Error(`a linear draft needs dims = ${outputCount} (one per output), got ${dims}`);
+    for (let k = 0; k < outputCount; k++) outputs[k * dims + k] = 1;
+  }
   return {
     head: options.head,
     labels: options.labels,
@@ -65,10 +90,12 @@ export function createDraft(options: {
     documentFrequency: options.documentFrequency,
     rows,
     rowWeights: options.rowWeights,
-    outputs: allocate(outputCount * dims),
+    outputs,
     bias: allocate(outputCount),
     outputCount,
     tree: options.tree,
     adaptive: options.adaptive ? { rows: allocate(slots.length), outputs: allocate(outputCount), bias: allocate(outputCount) } : null,
+    loss: options.loss ?? "logistic",
+    linear: options.linear ?? false,
   };
 }

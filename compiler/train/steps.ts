@@ -84,9 +84,14 @@ function updateOutput(draft: Draft, output: number, g: number, learningRate: num
     outputRate = learningRate / Math.sqrt(adaptive.outputs[output] + ADAPTIVE_EPSILON);
     biasRate = learningRate / Math.sqrt(adaptive.bias[output] + ADAPTIVE_EPSILON);
   }
-  for (let j = 0; j < dims; j++) {
-    s.gradHidden[j] += g * outputs[base + j];
-    outputs[base + j] -= outputRate * g * s.hidden[j];
+  if (draft.linear) {
+    // The identity layer of a linear draft stays as it is: logit k is hidden[k].
+    s.gradHidden[output] += g;
+  } else {
+    for (let j = 0; j < dims; j++) {
+      s.gradHidden[j] += g * outputs[base + j];
+      outputs[base + j] -= outputRate * g * s.hidden[j];
+    }
   }
   draft.bias[output] -= biasRate * g;
 }
@@ -131,17 +136,21 @@ function updateRows(draft: Draft, features: Uint32Array, start: number, end: num
 }
 
 /**
- * Softmax + negative log-likelihood of `gold`. Returns the loss before the update.
+ * Softmax head: negative log-likelihood of `gold` (or the margin loss, see draft.loss). Returns the loss before the update.
  * `trainRows = false` freezes the feature rows (fine-tuning the output after pruning).
  */
 export function softmaxStep(draft: Draft, features: Uint32Array, start: number, end: number, gold: number, learningRate: number, s: StepScratch, trainRows = true): number {
   const totalWeight = computeHidden(draft, features, start, end, s.hidden);
   const loss = softmaxOutputStep(draft, gold, learningRate, s);
-  if (trainRows) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  // Under the margin loss an example past its margin has no gradient: its rows stay as they are.
+  if (trainRows && !(loss === 0 && draft.loss === "margin")) updateRows(draft, features, start, end, totalWeight, learningRate, s);
   return loss;
 }
 
-/** The output half of softmaxStep, from the hidden vector in `s.hidden` (fills s.gradHidden). */
+/**
+ * The output half of softmaxStep, from the hidden vector in `s.hidden` (fills s.gradHidden).
+ * Returns the loss the draft minimizes (draft.loss: logistic or margin).
+ */
 export function softmaxOutputStep(draft: Draft, gold: number, learningRate: number, s: StepScratch): number {
   const count = draft.outputCount;
   let max = -Infinity;
@@ -150,15 +159,38 @@ export function softmaxOutputStep(draft: Draft, gold: number, learningRate: numb
     s.logits[k] = z;
     if (z > max) max = z;
   }
-  let sum = 0;
-  for (let k = 0; k < count; k++) sum += Math.exp(s.logits[k] - max);
-  const logSum = max + Math.log(sum);
-  const loss = logSum - s.logits[gold];
-  for (let k = 0; k < count; k++) s.gradLogits[k] = Math.exp(s.logits[k] - logSum) - (k === gold ? 1 : 0);
+  const loss = draft.loss === "margin" ? marginGradient(s.logits, gold, count, s.gradLogits) : logisticGradient(s.logits, max, gold, count, s.gradLogits);
   s.gradHidden.fill(0);
   const hiddenSquare = draft.adaptive ? meanSquare(s.hidden, draft.dims) : 0;
-  for (let k = 0; k < count; k++) updateOutput(draft, k, s.gradLogits[k], learningRate, s, hiddenSquare);
+  // A zero gradient changes nothing (the margin loss moves two outputs at most): skip it.
+  for (let k = 0; k < count; k++) if (s.gradLogits[k] !== 0) updateOutput(draft, k, s.gradLogits[k], learningRate, s, hiddenSquare);
   return loss;
+}
+
+/** Softmax negative log-likelihood of `gold` and its gradient p − onehot(gold) (`max` is the largest logit). */
+function logisticGradient(logits: Float64Array, max: number, gold: number, count: number, gradLogits: Float64Array): number {
+  let sum = 0;
+  for (let k = 0; k < count; k++) sum += Math.exp(logits[k] - max);
+  const logSum = max + Math.log(sum);
+  for (let k = 0; k < count; k++) gradLogits[k] = Math.exp(logits[k] - logSum) - (k === gold ? 1 : 0);
+  return logSum - logits[gold];
+}
+
+/**
+ * Multiclass hinge loss max(0, 1 + z_r − z_gold), r the highest other label, and its
+ * subgradient: +1 on r and −1 on gold while the margin is short of 1, else zero (the example
+ * is left alone). Crammer and Singer 2001 (see SoftmaxLoss in draft.ts).
+ */
+function marginGradient(logits: Float64Array, gold: number, count: number, gradLogits: Float64Array): number {
+  gradLogits.fill(0);
+  let rival = -1;
+  for (let k = 0; k < count; k++) if (k !== gold && (rival < 0 || logits[k] > logits[rival])) rival = k;
+  if (rival < 0) return 0; // one label: nothing to separate
+  const shortfall = 1 + logits[rival] - logits[gold];
+  if (shortfall <= 0) return 0;
+  gradLogits[rival] = 1;
+  gradLogits[gold] = -1;
+  return shortfall;
 }
 
 /** Independent sigmoids with binary cross-entropy, gold labels in labels[labelStart, labelEnd). */

@@ -178,6 +178,7 @@ export class Tokenizer {
       let apostrophes = 0;
       let previous = 0; // the last byte hashed
       let beforePrevious = 0;
+      let bytes = 0; // bytes hashed: under normalization 3 a letter repeating the one before is not
       let i = start;
       while (i < length) {
         const code = text.charCodeAt(i);
@@ -192,19 +193,25 @@ export class Tokenizer {
           apostrophes++;
         } else if (byte <= 0x39) {
           digits++;
+        } else if (fold && byte === previous) {
+          // A letter repeating the one before ("free", "freeee"): normalization 3 reads a run
+          // of one letter as one letter, here as in readWord; under normalization 2 a run of
+          // three or more is the folding reader's to bound.
+          if (foldRevised) {
+            i++;
+            continue;
+          }
+          if (byte === beforePrevious) return start;
         }
-        pending |= byte << (((i - start) & 3) << 3);
-        if (((i - start + 1) & 3) === 0) {
+        pending |= byte << ((bytes & 3) << 3);
+        if ((++bytes & 3) === 0) {
           h = mixBlock(h, pending);
           pending = 0;
         }
-        // Three of one letter in a row ("freeee"), or under normalization 3 two: the folding reader reads the run.
-        if (fold && byte === previous && byte > 0x39 && (byte === beforePrevious || foldRevised)) return start;
         beforePrevious = previous;
         previous = byte;
         i++;
       }
-      const bytes = i - start;
       if (bytes === 0) return start;
       // Letters mixed with digits ("fr33"): the folding reader decides whether they are leetspeak.
       if (fold && digits > 0 && digits + apostrophes < bytes) return start;
@@ -228,9 +235,12 @@ export class Tokenizer {
       const charStart = this.wordCharTotal;
       if (keepWordChars) {
         while (this.wordChars.length < charStart + bytes) this.growWordChars();
-        for (let c = 0; c < bytes; c++) {
-          const code = text.charCodeAt(start + c);
-          this.wordChars[charStart + c] = code === 0x27 ? 0x27 : ASCII_WORD_BYTES[code];
+        let c = charStart;
+        for (let k = start; k < i; k++) {
+          const code = text.charCodeAt(k);
+          const byte = code === 0x27 ? 0x27 : ASCII_WORD_BYTES[code];
+          if (foldRevised && c > charStart && byte > 0x39 && byte === this.wordChars[c - 1]) continue; // the letter run read as one, as hashed
+          this.wordChars[c++] = byte;
         }
         this.wordCharTotal = charStart + bytes;
       }

@@ -47,12 +47,13 @@ describe("the build's setting search", () => {
   });
 
   it("never changes a setting the user gave", async () => {
-    const given = { epochs: 3, learningRate: 0.3, charSpan: [3, 5] as [number, number], weighting: "mean" as const, dims: 12 };
-    const { report } = await build({ examples, settings: settings(given), explicit: ["hashBits", "searchTime", "epochs", "learningRate", "charSpan", "weighting", "dims"], buildTime: BUILD_TIME });
-    expect(report.search?.chosen).toMatchObject({ ...given, head: "softmax" });
+    // An explicit --dims also keeps hidden rows: the search tries no linear rows.
+    const given = { epochs: 3, learningRate: 0.3, charSpan: [3, 5] as [number, number], weighting: "mean" as const, dims: 12, loss: "margin" as const };
+    const { report } = await build({ examples, settings: settings(given), explicit: ["hashBits", "searchTime", "epochs", "learningRate", "charSpan", "weighting", "dims", "loss"], buildTime: BUILD_TIME });
+    expect(report.search?.chosen).toMatchObject({ ...given, head: "softmax", linear: false });
     // Nothing was left to try but the starting point.
     expect(report.search?.candidates).toHaveLength(1);
-    expect(report.search?.explicit.sort()).toEqual(["charSpan", "dims", "epochs", "learningRate", "weighting"]);
+    expect(report.search?.explicit.sort()).toEqual(["charSpan", "dims", "epochs", "learningRate", "loss", "weighting"]);
   });
 
   it("stops trying candidates once its time budget is spent", async () => {
@@ -93,7 +94,8 @@ describe("the character n-gram probe", () => {
 
 describe("budget-aware dims", () => {
   it("tries narrower rows when the size budget prunes rows that store dims values", async () => {
-    const { report } = await build({ examples, settings: settings({ maxBytes: 24_000, foldOutput: false }), explicit: ["hashBits", "searchTime", "maxBytes", "foldOutput"], buildTime: BUILD_TIME });
+    // Hidden rows (linear rows are as wide as the label count whatever dims is, and would win here).
+    const { report } = await build({ examples, settings: settings({ maxBytes: 24_000, foldOutput: false, linear: false }), explicit: ["hashBits", "searchTime", "maxBytes", "foldOutput", "linear"], buildTime: BUILD_TIME });
     const narrower = report.search?.candidates.find((c) => c.name.startsWith("dims 12"));
     expect(narrower?.settings.dims).toBe(12);
     expect(narrower?.rowsKept).toBeLessThan(narrower?.rows ?? 0);

@@ -60,8 +60,8 @@ describe("the plain-chunk fast path", () => {
 
   it("is really taken for plain text (the comparison above is not between two general readers)", () => {
     // The fast path is the tokenizer's (runtime/featurizer/tokenizer.ts): count the chunks left to its general reader.
-    const chunksReadInFull = (plainChunks: boolean) => {
-      const featurizer = createFeaturizer(SETTINGS[0]);
+    const chunksReadInFull = (plainChunks: boolean, settings = SETTINGS[0], text = "where is my parcel, it was due on Monday. see https://example.com/x") => {
+      const featurizer = createFeaturizer(settings);
       featurizer.tokens.plainChunks = plainChunks;
       const tokenizer = featurizer.tokens as unknown as { readChunk: (...args: unknown[]) => number };
       const original = tokenizer.readChunk;
@@ -70,10 +70,15 @@ describe("the plain-chunk fast path", () => {
         calls++;
         return original.apply(this, args);
       };
-      featurizer.featurize("where is my parcel, it was due on Monday. see https://example.com/x", createFeatureBuffer());
+      featurizer.featurize(text, createFeatureBuffer());
       return calls;
     };
     expect(chunksReadInFull(false)).toBe(11);
     expect(chunksReadInFull(true)).toBe(1); // only the URL
+    // Normalization 3 reads a doubled letter as one on the fast path too ("free" as "fre"); a
+    // stretched run under normalization 2 is the folding reader's.
+    const doubled = "free letter, all good. sooo cool";
+    expect(chunksReadInFull(true, SETTINGS[4], doubled)).toBe(0);
+    expect(chunksReadInFull(true, SETTINGS[2], doubled)).toBe(1);
   });
 });
