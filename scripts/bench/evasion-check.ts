@@ -8,7 +8,7 @@
 // test parts are never read here: they report, this decides.
 //
 //   node --import tsx scripts/bench/evasion-check.ts [--corpora DIR] [--only contact-form,mail-spam,catalog-languages]
-//     [--rate 0.3] [--seeds 5] [--show spacing] [--no-fold]
+//     [--rate 0.3] [--seeds 5] [--show spacing] [--no-fold] [--build-seed N] [--read-as N] [--char-span 1-4] [--show-top-others]
 //
 // Measurements, not tests.
 import { createHash } from "node:crypto";
@@ -103,7 +103,9 @@ for (const part of trainingParts(resolve(option("--corpora") ?? "corpora"))) {
   if (only !== null && !only.includes(part.name)) continue;
   const fit = part.rows.filter((r) => hashShare("sluice-evasion-check-v1", r.group) >= 0.2);
   const check = part.rows.filter((r) => hashShare("sluice-evasion-check-v1", r.group) < 0.2);
-  const settings = { ...defaultBuildSettings(), searchTime: 0, foldEvasion: fold, targetPrecision: part.targets.precision, targetRecall: part.targets.recall };
+  const seed = Number(option("--build-seed") ?? defaultBuildSettings().seed);
+  const charSpan = (option("--char-span") ?? "0-0").split("-").map(Number) as [number, number];
+  const settings = { ...defaultBuildSettings(), seed, charSpan, searchTime: 0, foldEvasion: fold, targetPrecision: part.targets.precision, targetRecall: part.targets.recall };
   const { bytes } = await build({ examples: fit.map((r) => ({ text: r.text, labels: [r.label], group: r.group })), settings, buildTime: "2026-01-01T00:00:00.000Z", dataName: part.name });
   const model = loadModel(bytes);
   // --read-as N: score the same model with another normalization's reading (an A/B of the
@@ -123,6 +125,11 @@ for (const part of trainingParts(resolve(option("--corpora") ?? "corpora"))) {
     return { accuracy, recall, flagged, spamScores: texts.map((t) => model.classify(t, { top: model.labels.length }).find((s) => s.label === "spam")?.score ?? 0) };
   };
   const clean = score(check.map((r) => r.text));
+  if (process.argv.includes("--show-top-others")) {
+    // The check part's texts not labelled spam that score highest as spam: what sets a 99%-precision threshold.
+    const others = check.map((r, i) => ({ r, s: clean.spamScores[i] })).filter((x) => x.r.label !== "spam").sort((a, b) => b.s - a.s).slice(0, 8);
+    for (const { r, s } of others) console.log(`    ${s.toFixed(5)} [${r.label}] ${r.text.slice(0, 160).replace(/\s+/g, " ")}`);
+  }
   // Fixed operating points besides the policy's (whose threshold, at 99% precision on a small
   // validation part, swings from build to build): the spam scores that 25% and 50% of the clean
   // check part's spam reach. Perturbed recall at the same scores shows how far the texts moved.

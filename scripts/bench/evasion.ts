@@ -3,8 +3,9 @@
 // scripts/bench/evasion-perturb.ts at several rates of affected words (seeded), and scored:
 // accuracy, and the recall of each policy label at its policy threshold (spam: the block
 // threshold reaching 99% precision on validation; abusive, on the contact form: the review
-// threshold reaching 90% recall). Systems, all on the same rows:
-//   - Sluice with evasion folding (normalization 2, the build default),
+// threshold reaching 90% recall), and without a threshold (the share of the label's texts whose
+// top label it is). Systems, all on the same rows:
+//   - Sluice with evasion folding (the newest normalization, the build default),
 //   - Sluice without it (--no-fold-evasion: normalization 1, the rules before folding existed),
 //   - scikit-learn TF-IDF + LogisticRegression (when Debian's python3-sklearn is installed:
 //     `npm run bench:setup`), thresholds chosen on validation for the same targets.
@@ -66,6 +67,11 @@ export interface EvasionCell {
   accuracy: number;
   /** Label → recall at its policy threshold. */
   recall: Record<string, number>;
+  /**
+   * Label → the share of its texts whose top label it is (no threshold): steadier than `recall`
+   * when the policy's threshold sits so high that few texts reach it (the contact form's spam).
+   */
+  topRecall?: Record<string, number>;
 }
 
 export interface EvasionResults {
@@ -120,15 +126,17 @@ function variantsOf(test: Row[], rates: number[]): { kind: PerturbationKind | "c
   return variants;
 }
 
-function scoreCell(test: Row[], predictions: string[], flagged: Record<string, boolean[]>): { accuracy: number; recall: Record<string, number> } {
+function scoreCell(test: Row[], predictions: string[], flagged: Record<string, boolean[]>): { accuracy: number; recall: Record<string, number>; topRecall: Record<string, number> } {
   let correct = 0;
   for (let i = 0; i < test.length; i++) if (predictions[i] === test[i].label) correct++;
   const recall: Record<string, number> = {};
+  const topRecall: Record<string, number> = {};
   for (const [label, hits] of Object.entries(flagged)) {
     const positives = test.map((r, i) => (r.label === label ? i : -1)).filter((i) => i >= 0);
     recall[label] = positives.filter((i) => hits[i]).length / Math.max(1, positives.length);
+    topRecall[label] = positives.filter((i) => predictions[i] === label).length / Math.max(1, positives.length);
   }
-  return { accuracy: correct / test.length, recall };
+  return { accuracy: correct / test.length, recall, topRecall };
 }
 
 /** Predicted label and, per policy rule, whether the text reaches its threshold. */
@@ -235,11 +243,18 @@ function formatEvasion(r: EvasionResults): string {
       const cells = r.cells.filter((c) => c.dataset === set.name && c.system === system);
       const clean = cells.find((c) => c.kind === "clean") as EvasionCell;
       for (const cell of cells) {
-        rows.push([system, cell.kind === "clean" ? "clean" : `${cell.kind} ${Math.round(cell.rate * 100)}%`, pct(cell.accuracy), ...labels.map((l) => `${pct(cell.recall[l])}${cell.kind === "clean" ? "" : ` (${signed(cell.recall[l] - clean.recall[l])})`}`)]);
+        const vsClean = (value: number | undefined, cleanValue: number | undefined) => `${pct(value)}${cell.kind === "clean" ? "" : ` (${signed((value ?? NaN) - (cleanValue ?? NaN))})`}`;
+        rows.push([
+          system,
+          cell.kind === "clean" ? "clean" : `${cell.kind} ${Math.round(cell.rate * 100)}%`,
+          pct(cell.accuracy),
+          ...labels.map((l) => vsClean(cell.recall[l], clean.recall[l])),
+          ...labels.map((l) => vsClean(cell.topRecall?.[l], clean.topRecall?.[l])),
+        ]);
       }
     }
     const targetText = set.targets.map((t) => (t.precision !== undefined ? `${t.label} at ${t.precision * 100}% precision` : `${t.label} at ${(t.recall ?? 0) * 100}% recall`)).join(", ");
-    parts.push(`## ${set.name}\n\n${set.description}; ${set.trainRows} train, ${set.testRows} test rows. Policy thresholds chosen on validation: ${targetText}. Model bytes: ${Object.entries(set.modelBytes).map(([s, b]) => `${s} ${b}`).join(", ")}.\n\n${markdownTable(["system", "test part", "accuracy %", ...labels.map((l) => `${l} recall % (vs clean)`)], rows, ["left", "left", "right", ...labels.map(() => "right" as const)])}`);
+    parts.push(`## ${set.name}\n\n${set.description}; ${set.trainRows} train, ${set.testRows} test rows. Policy thresholds chosen on validation: ${targetText}. Model bytes: ${Object.entries(set.modelBytes).map(([s, b]) => `${s} ${b}`).join(", ")}.\n\n${markdownTable(["system", "test part", "accuracy %", ...labels.map((l) => `${l} recall % (vs clean)`), ...labels.map((l) => `${l} as top label % (vs clean)`)], rows, ["left", "left", "right", ...labels.map(() => "right" as const), ...labels.map(() => "right" as const)])}`);
   }
   parts.push(r.notes.map((n) => `- ${n}`).join("\n"));
   return parts.join("\n\n");

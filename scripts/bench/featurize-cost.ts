@@ -2,7 +2,8 @@
 // featurizes the micro-benchmark's 20- and 300-token demo texts (scripts/bench/micro.ts) with
 // the same settings, in fresh child processes, interleaved round by round, in CPU µs per call.
 // Sides: the earlier checkout (normalization 1, all it may know), this one at normalization 1,
-// and this one at normalization 2 (evasion folding). Prints a table and the load. Not a test.
+// 2 (evasion folding) and 3 (folding with every letter run read as one letter). Prints a table
+// and the load. Not a test.
 // node --import tsx scripts/bench/featurize-cost.ts --before DIR [--rounds 5]
 // DIR is a `git worktree add --detach DIR COMMIT` with its own `npm ci`.
 import { spawnSync } from "node:child_process";
@@ -27,6 +28,7 @@ const SIDES = [
   ["before", before, 1],
   ["normalization 1", after, 1],
   ["normalization 2", after, 2],
+  ["normalization 3", after, 3],
 ] as const;
 
 // The child: one checkout's runtime featurizes each text (median of 21 windows of about 25 ms,
@@ -85,8 +87,8 @@ try {
   const loadAfter = loadavg();
   const f = (n: number) => n.toFixed(2);
   console.log(`before: ${before}\nafter:  ${after}\n`);
-  console.log("| settings | text | before (normalization 1) | after, normalization 1 | after, normalization 2 |");
-  console.log("| --- | --- | ---: | ---: | ---: |");
+  console.log("| settings | text | before (normalization 1) | after, normalization 1 | after, normalization 2 | after, normalization 3 |");
+  console.log("| --- | --- | ---: | ---: | ---: | ---: |");
   for (const [label] of SETTINGS) {
     texts.forEach((_, t) => {
       const base = samples[`${label}|before`];
@@ -95,7 +97,7 @@ try {
         const ratio = median(runs.map((run, r) => run[t] / base[r][t]));
         return `${f(median(runs.map((run) => run[t])))} µs (${f(ratio)}×)`;
       };
-      console.log(`| ${label} | ${t === 0 ? 20 : 300} tokens | ${f(median(base.map((run) => run[t])))} µs | ${cell("normalization 1")} | ${cell("normalization 2")} |`);
+      console.log(`| ${label} | ${t === 0 ? 20 : 300} tokens | ${f(median(base.map((run) => run[t])))} µs | ${cell("normalization 1")} | ${cell("normalization 2")} | ${cell("normalization 3")} |`);
     });
   }
   console.log(`\nCPU µs per featurize call, medians over ${rounds} interleaved rounds; ratios are medians of same-round ratios to "before". Load average before ${loadBefore.map((l) => l.toFixed(2)).join(" / ")}, after ${loadAfter.map((l) => l.toFixed(2)).join(" / ")}.`);
