@@ -4,7 +4,7 @@
 // validation split is scored after every epoch; training stops when neither macro-F1 nor the
 // validation loss has improved for a few epochs), so the number of epochs comes with every
 // candidate. Candidates are tried one change at a time from the best so far (coordinate
-// ascent): the other character setting, the softmax head, rows of logits, the margin loss, the other weighting, then a larger
+// ascent): the other character setting, the softmax head, linear rows with the margin loss, the margin loss, the other weighting, then a larger
 // and a smaller learning rate. A candidate replaces the best only when its validation macro-F1
 // is higher; one whose serving work (counted as the compiled runtime does it) is more than
 // twice the word-only candidate's must gain at least one point of macro-F1 (a rule of this
@@ -251,20 +251,22 @@ export async function searchSettings(job: SearchJob): Promise<{ settings: BuildS
   }
   // The tree head is fast for many labels but less accurate than a full softmax on small label sets (measured on language identification, 106 labels).
   if (!explicit.has("head") && job.head === "tree") consider("softmax head", { head: "softmax" }, 3);
-  // Rows of per-label logits (draft.ts, linear): a full-rank linear model instead of narrow rows
-  // and an output layer; with more labels than dims each row stores more values, so the size
-  // budget keeps fewer of them, which the candidate's pruned score accounts for. An explicit
-  // --dims keeps hidden rows.
-  if (!explicit.has("linear") && !explicit.has("dims") && headOf(bestSettings) === "softmax") consider(`linear rows (dims ${labels.length})`, { linear: true, dims: labels.length }, Math.max(1, labels.length / bestSettings.dims));
-  // The margin loss (draft.ts, SoftmaxLoss) for the softmax head, after the rows' kind: on
-  // passages of long documents and many uneven labels it read unseen texts better than the
-  // log-likelihood, most of all with linear rows (see the loss and linear settings in
-  // build-settings.ts); for the other heads the setting means nothing.
-  if (!explicit.has("loss") && headOf(bestSettings) === "softmax") consider(`${bestSettings.loss === "margin" ? "logistic" : "margin"} loss`, { loss: bestSettings.loss === "margin" ? "logistic" : "margin" }, 1);
-  // The two help most together (on the passages' build split: 0.286 macro-F1 for either alone,
-  // 0.304 for both, learner-lab.ts), which one change at a time does not reach: try the pair.
-  const linearOpen = !explicit.has("linear") && !explicit.has("dims");
-  if (linearOpen && !explicit.has("loss") && headOf(bestSettings) === "softmax" && !(bestSettings.linear && bestSettings.loss === "margin")) consider(`linear rows (dims ${labels.length}) with the margin loss`, { linear: true, dims: labels.length, loss: "margin" }, Math.max(1, labels.length / bestSettings.dims));
+  // For the softmax head: rows of per-label logits (draft.ts, linear: a full-rank linear model
+  // instead of narrow rows and an output layer) trained with the margin loss (SoftmaxLoss), then,
+  // when they did not win, the margin loss alone. The pair helps most together (on the passages'
+  // build split: 0.286 macro-F1 for either alone, 0.304 for both; learner-lab.ts); linear rows
+  // with the log-likelihood converge slowly (21 epochs, 29 s of a 62 s budget on package
+  // sections) and did not win alone there, on the passages nor on SpamAssassin, so they are tried
+  // only when the user fixed the loss. With more labels than dims each linear row stores more
+  // values and the size budget keeps fewer of them, which the candidate's pruned score accounts
+  // for. An explicit --dims keeps hidden rows.
+  const softmax = headOf(bestSettings) === "softmax";
+  const linearOpen = softmax && !explicit.has("linear") && !explicit.has("dims") && !bestSettings.linear;
+  const lossOpen = softmax && !explicit.has("loss");
+  const linearCost = Math.max(1, labels.length / bestSettings.dims);
+  if (linearOpen && lossOpen) consider(`linear rows (dims ${labels.length}) with the margin loss`, { linear: true, dims: labels.length, loss: "margin" }, linearCost);
+  else if (linearOpen) consider(`linear rows (dims ${labels.length})`, { linear: true, dims: labels.length }, linearCost);
+  if (lossOpen && bestSettings.loss !== "margin") consider("margin loss", { loss: "margin" }, 1);
   if (!explicit.has("weighting")) consider(`weighting ${bestSettings.weighting === "tfidf" ? "mean" : "tfidf"}`, { weighting: bestSettings.weighting === "tfidf" ? "mean" : "tfidf" }, 1.2);
   // Budget-aware dims: when the size budget keeps only part of the trained rows, narrower rows
   // buy more of them (a row of d int8 values costs about d + 6 bytes). Halve while that wins,

@@ -16,10 +16,15 @@ export function rowImportance(draft: Draft): Float64Array {
   for (let row = 0; row < rowCount; row++) {
     const base = row * dims;
     let squared = 0;
-    for (let k = 0; k < outputCount; k++) {
-      let dot = 0;
-      for (let j = 0; j < dims; j++) dot += outputs[k * dims + j] * rows[base + j];
-      squared += dot * dot;
+    if (draft.linear) {
+      // The identity output layer: O·row is the row itself (dims times fewer multiplications).
+      for (let j = 0; j < dims; j++) squared += rows[base + j] * rows[base + j];
+    } else {
+      for (let k = 0; k < outputCount; k++) {
+        let dot = 0;
+        for (let j = 0; j < dims; j++) dot += outputs[k * dims + j] * rows[base + j];
+        squared += dot * dot;
+      }
     }
     const weight = draft.rowWeights === null ? 1 : draft.rowWeights[row];
     importance[row] = Math.sqrt(squared) * weight * documentFrequency[row];

@@ -106,7 +106,7 @@ function meanSquare(vector: Float64Array, dims: number): number {
 }
 
 /** rows −= lr · (w_f / Σw) · gradHidden for every feature occurrence (adaptive: per row, see updateOutput). */
-function updateRows(draft: Draft, features: Uint32Array, start: number, end: number, totalWeight: number, learningRate: number, s: StepScratch): void {
+function updateRows(draft: Draft, features: Uint32Array, start: number, end: number, totalWeight: number, learningRate: number, s: StepScratch, gold = -1, rival = -1): void {
   if (totalWeight <= 0) return;
   const dims = draft.dims;
   const rows = draft.rows;
@@ -124,6 +124,12 @@ function updateRows(draft: Draft, features: Uint32Array, start: number, end: num
       scale /= Math.sqrt(adaptive.rows[row] + ADAPTIVE_EPSILON);
     }
     const base = row * dims;
+    if (rival >= 0) {
+      // Only two columns have a gradient (see softmaxStep): the others would subtract zero.
+      rows[base + gold] -= scale * gradHidden[gold];
+      rows[base + rival] -= scale * gradHidden[rival];
+      continue;
+    }
     let j = 0;
     for (; j + 3 < dims; j += 4) {
       rows[base + j] -= scale * gradHidden[j];
@@ -142,8 +148,17 @@ function updateRows(draft: Draft, features: Uint32Array, start: number, end: num
 export function softmaxStep(draft: Draft, features: Uint32Array, start: number, end: number, gold: number, learningRate: number, s: StepScratch, trainRows = true): number {
   const totalWeight = computeHidden(draft, features, start, end, s.hidden);
   const loss = softmaxOutputStep(draft, gold, learningRate, s);
-  // Under the margin loss an example past its margin has no gradient: its rows stay as they are.
-  if (trainRows && !(loss === 0 && draft.loss === "margin")) updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  if (!trainRows) return loss;
+  if (draft.loss !== "margin") {
+    updateRows(draft, features, start, end, totalWeight, learningRate, s);
+  } else if (loss > 0) {
+    // Under the margin loss an example past its margin has no gradient: its rows stay as they
+    // are. Otherwise a linear draft's hidden gradient is the logits' (identity layer), non-zero
+    // only for the gold label and its rival, so only those two columns of each row move.
+    let rival = -1;
+    if (draft.linear) for (let k = 0; k < draft.outputCount; k++) if (s.gradLogits[k] > 0) rival = k;
+    updateRows(draft, features, start, end, totalWeight, learningRate, s, gold, rival);
+  }
   return loss;
 }
 

@@ -5,6 +5,7 @@
 // chosen. Prints a table; nothing is asserted.
 //
 //   node --import tsx scripts/bench/cross-validate.ts [--folds 5] [--sets support-topics,contact-form,spam-assassin]
+//        [--configs fixed,default,search] (search: the setting search without linear rows and the margin loss)
 //   (a corpus prepared under /work/corpora-shared/<name>/ may be named too: its train.jsonl is used)
 
 import { existsSync, readFileSync } from "node:fs";
@@ -24,6 +25,8 @@ const option = (name: string, fallback: string) => {
 };
 const folds = Number(option("--folds", "5"));
 const sets = option("--sets", "support-topics,contact-form,spam-assassin").split(",");
+// --configs fixed,default,search: which of the settings below to run (each line starts with its name).
+const configNames = option("--configs", "fixed,default").split(",");
 const CORPORA = process.env.SLUICE_CORPORA ?? "/work/corpora-shared";
 
 async function load(name: string): Promise<LabelledText[]> {
@@ -76,8 +79,11 @@ for (const name of sets) {
   const configs: [string, BuildSettings, (keyof BuildSettings)[]][] = [
     ["fixed (--search-time 0)", { ...defaultBuildSettings(), searchTime: 0 }, ["searchTime"]],
     ["default (search)", defaultBuildSettings(), []],
+    // The search as it was before it tried linear rows and the margin loss.
+    ["search, --no-linear --loss logistic", { ...defaultBuildSettings(), linear: false, loss: "logistic" }, ["linear", "loss"]],
   ];
   for (const [label, settings, explicit] of configs) {
+    if (!configNames.some((name) => label.startsWith(name))) continue;
     const outcomes: Outcome[] = [];
     for (let f = 0; f < folds; f++) {
       outcomes.push(await foldOutcome(rows.filter((_, i) => fold[i] !== f), rows.filter((_, i) => fold[i] === f), settings, explicit));
