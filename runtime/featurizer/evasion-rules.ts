@@ -17,6 +17,7 @@
 // also drops the ". , :" between two digits of a leetspeak reading (collapseLeetReading).
 // Common practice, no source: the readings are the usual leetspeak ones.
 import { LETTER, isUnspacedLetter } from "./char-classes.ts";
+import { charCodesToString } from "./char-codes-to-string.ts";
 import { Murmur3Stream } from "./murmur3.ts";
 
 const LEET_DIGITS = "oi eas tbg"; // the letter each digit 0–9 stands for, " " for none
@@ -82,9 +83,21 @@ export function capRuns(chars: Uint16Array, start: number, end: number): { end: 
  * Normalization 3: a leetspeak reading in `chars[start..end)` (its digits already letters) read
  * as a word is: the ". , :" that joined two of its digits dropped ("a3.0a" → "aeoa", which reads
  * the same again), and each run of one letter shortened to one ("fr33" → "fre", as "free"
- * reads), but for letters of scripts written without spaces, as in readWord. Returns the new end.
+ * reads), but for letters of scripts written without spaces, as in readWord; a combining mark
+ * after a digit read as a letter is composed with it first. Returns the new end.
  */
 export function collapseLeetReading(chars: Uint16Array, start: number, end: number): number {
+  // A digit read as a letter may carry a combining mark ("3\u0301" → "e\u0301"), which the
+  // text's NFKC could not compose with a digit: compose it now, so a word read again reads the same.
+  let nonAscii = false;
+  for (let i = start; i < end && !nonAscii; i++) nonAscii = chars[i] >= 0x80;
+  if (nonAscii) {
+    const composed = charCodesToString(chars, start, end).normalize("NFKC");
+    if (composed.length <= end - start) {
+      for (let i = 0; i < composed.length; i++) chars[start + i] = composed.charCodeAt(i);
+      end = start + composed.length;
+    }
+  }
   let write = start;
   for (let read = start; read < end; read++) {
     const code = chars[read];
