@@ -6,6 +6,7 @@
 // reference's chosen C/alpha and fit seconds. Results: test/bench/results/accuracy.{json,md}.
 //
 //   node --import tsx scripts/bench/accuracy.ts [--corpora DIR] [--only a,b] [--max-train N] [--no-sklearn] [--no-sluice]
+//        [--learners LinearSVC,MultinomialNB] (some references only, e.g. where LogisticRegression's grid does not finish)
 //   (--no-sluice runs the references only, e.g. once while the Sluice side is iterated on)
 //
 // Measurements, not tests. The machine is shared, so seconds are noisy.
@@ -72,6 +73,7 @@ function sklearnAvailable(): string | null {
 
 const root = resolve(option("--corpora") ?? "corpora");
 const only = option("--only")?.split(",");
+const learners = option("--learners")?.split(",");
 const maxTrain = Number(option("--max-train") ?? DEFAULT_MAX_TRAIN);
 const manifestFile = join(root, "manifest.json");
 if (!existsSync(manifestFile)) throw new Error(`${manifestFile} is missing: run \`npm run corpora\` first`);
@@ -125,7 +127,8 @@ try {
     }
     if (sklearnVersion) {
       const optionsFile = join(work, `${entry.name}-options.json`);
-      writeFileSync(optionsFile, JSON.stringify({ multiLabel: corpus.multiLabel, charGrams: CHAR_GRAM_CORPORA.has(entry.name) }));
+      writeFileSync(optionsFile, JSON.stringify({ multiLabel: corpus.multiLabel, charGrams: CHAR_GRAM_CORPORA.has(entry.name), only: learners ?? null }));
+      if (learners) notes.push(`references: ${learners.join(", ")} only (--learners)`);
       const child = spawnSync(SYSTEM_PYTHON, [SKLEARN_SCRIPT, trainFile, testFile, optionsFile], { encoding: "utf8", maxBuffer: 1 << 30, stdio: ["ignore", "pipe", "inherit"] });
       if (child.status !== 0) throw new Error(`sklearn_suite.py on ${entry.name} failed (exit ${child.status})`);
       const output = JSON.parse(child.stdout) as { sklearn: string; numpy: string; scipy: string; python: string; models: { name: string; parameter: string; value: number; fitSeconds: number; searchSeconds: number; predictions: (string | string[])[] }[] };
