@@ -62,11 +62,7 @@ export function createFeatureBuffer(capacity = 1024, detail: boolean | "origins"
 }
 
 export function pushSlot(out: FeatureBuffer, slot: number): void {
-  if (out.count === out.slots.length) {
-    const grown = new Uint32Array(out.slots.length * 2);
-    grown.set(out.slots);
-    out.slots = grown;
-  }
+  if (out.count === out.slots.length) reserveSlots(out, 1);
   out.slots[out.count++] = slot;
 }
 
@@ -93,10 +89,15 @@ export function reserveSlots(out: FeatureBuffer, extra: number): void {
 
 /** Records the origin of the feature just pushed (call only when `out.origins` is not null). */
 export function pushOrigin(out: FeatureBuffer, kind: number, length: number, first: number, second: number): void {
+  writeOrigin(out, out.count - 1, kind, length, first, second);
+}
+
+/** Records the origin of feature `f` (call only when `out.origins` is not null). */
+export function writeOrigin(out: FeatureBuffer, f: number, kind: number, length: number, first: number, second: number): void {
   let origins = out.origins as Int32Array;
-  const at = 3 * (out.count - 1);
+  const at = 3 * f;
   if (at + 3 > origins.length) {
-    const grown = new Int32Array(3 * out.slots.length);
+    const grown = new Int32Array(Math.max(3 * out.slots.length, at + 3));
     grown.set(origins);
     out.origins = origins = grown;
   }

@@ -16,6 +16,7 @@ import {
   pushOrigin,
   pushSlot,
   reserveSlots,
+  writeOrigin,
   type FeatureBuffer,
 } from "./feature-buffer.ts";
 import { deriveFeatureSeeds } from "./feature-seeds.ts";
@@ -243,22 +244,22 @@ export class Featurizer {
     // of them once, then written straight into the arrays (this loop runs for every token).
     reserveSlots(out, 2 * count + Math.max(0, wordSpan - 1) * count);
     const slots = out.slots;
-    const origins = out.origins;
+    const withOrigins = out.origins !== null;
     let f = out.count;
     for (let t = 0; t < count; t++) {
       const kind = kinds[t];
       if (wordsApart && kind === WORD) continue;
-      if (origins !== null) setOrigin(origins, f, TOKEN_FEATURE, 0, t);
+      if (withOrigins) writeOrigin(out, f, TOKEN_FEATURE, 0, t, 0);
       slots[f++] = hashes[t] & mask;
       if (kind === URL) {
-        if (origins !== null) setOrigin(origins, f, URL_SHAPE_FEATURE, 0, t);
+        if (withOrigins) writeOrigin(out, f, URL_SHAPE_FEATURE, 0, t, 0);
         slots[f++] = this.anyUrlHash & mask;
       }
     }
     for (let n = 2; n <= wordSpan; n++) {
       const seed = (this.ngramSeed + n) >>> 0;
       for (let t = 0; t + n <= count; t++) {
-        if (origins !== null) setOrigin(origins, f, WORD_NGRAM_FEATURE, n, t);
+        if (withOrigins) writeOrigin(out, f, WORD_NGRAM_FEATURE, n, t, 0);
         slots[f++] = murmur3Words(hashes, t, n, seed) & mask;
       }
     }
@@ -267,13 +268,6 @@ export class Featurizer {
       for (let t = 0; t < count; t++) if (kinds[t] === WORD) this.charGrams(t, out);
     }
   }
-}
-
-/** The origin of feature `f` (token and n-gram features: their second position is unused). */
-function setOrigin(origins: Int32Array, f: number, kind: number, length: number, first: number): void {
-  origins[3 * f] = kind | (length << 8);
-  origins[3 * f + 1] = first;
-  origins[3 * f + 2] = 0;
 }
 
 /** The original text of a span of the normalized text, when it differs from `name` (lower-cased), else null. */
