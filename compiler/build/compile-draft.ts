@@ -37,7 +37,7 @@ export async function compileDraft(draft: Draft, ranking: Int32Array, keep: numb
       return { contents: contentsOf(pruned, header, settings.precision, frozen, rowSpace), fineTuneNote };
     } catch (error) {
       if (!(error instanceof TrainingDivergedError) || attempt >= MAX_FINE_TUNE_RECOVERIES) throw error;
-      fineTuneNote = `fine-tuning the output layer on the kept rows diverged at rate ${fineTuneRate} (${error.message.replace(/^training diverged( at epoch \d+)?: /, "").replace(/; lower --learning-rate.*$/, "")}); fine-tuned at ${fineTuneRate / 2}`;
+      fineTuneNote = `fine-tuning the output layer on the kept rows diverged at rate ${fineTuneRate} (${error.detail}); fine-tuned at ${fineTuneRate / 2}`;
       fineTuneRate /= 2;
     }
   }
